@@ -1,0 +1,57 @@
+import { randomUUID } from "node:crypto";
+import express, { type Express } from "express";
+import helmet from "helmet";
+import { pinoHttp } from "pino-http";
+import { sessionMiddleware } from "@/auth/session.middleware";
+import { env } from "@/config/env";
+import { errorMiddleware, notFoundHandler } from "@/errors";
+import { logger } from "@/logger";
+import { buildApiRoutes } from "@/routes";
+import { originCheck } from "@/security/origin-check";
+import { authRateLimit } from "@/security/rate-limits";
+import { mountWebApp } from "@/web-static";
+
+export type AppOptions = {
+  /** Attempts per address per 15 minutes on sign-in, sign-up and reset (default: AUTH_RATE_LIMIT). */
+  authRateLimit?: number;
+};
+
+/** Builds the Express app (no listen): middleware, routes under /api, the web app, errors. */
+export function createApp(options: AppOptions = {}): Express {
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("trust proxy", "loopback");
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { "upgrade-insecure-requests": null, "img-src": ["'self'", "data:", "blob:"] },
+      },
+      strictTransportSecurity: env.cookieSecure,
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers["x-request-id"];
+        const id = typeof incoming === "string" && /^[\w-]{1,64}$/.test(incoming) ? incoming : randomUUID();
+        res.setHeader("X-Request-Id", id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === "/api/health" },
+    }),
+  );
+
+  const api = express.Router();
+  api.use(express.json({ limit: "2mb" }));
+  api.use(originCheck(["/api/v1/", "/api/billing/webhook"]));
+  api.use(sessionMiddleware);
+  api.use(buildApiRoutes({ authLimiter: authRateLimit(options.authRateLimit ?? env.AUTH_RATE_LIMIT) }));
+  api.use(notFoundHandler);
+  app.use("/api", api);
+
+  if (env.WEB_DIST) mountWebApp(app, env.WEB_DIST);
+  app.use(notFoundHandler);
+  app.use(errorMiddleware);
+  return app;
+}

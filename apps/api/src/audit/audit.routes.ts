@@ -1,0 +1,12 @@
+import { auditQuerySchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { parseOrThrow } from "@/errors";
+import { allow, memberOf } from "@/orgs/org-access";
+import { getAuditPage } from "./audit.service";
+
+export const auditRouter = Router({ mergeParams: true });
+
+auditRouter.get("/audit", allow(), async (req, res) => {
+  const query = parseOrThrow(auditQuerySchema, req.query, "query");
+  res.json(await getAuditPage(memberOf(req).organizationId, query));
+});

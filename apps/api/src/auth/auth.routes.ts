@@ -1,0 +1,80 @@
+import {
+  passwordResetConfirmSchema,
+  passwordResetRequestSchema,
+  signInInputSchema,
+  signUpInputSchema,
+  verifyEmailInputSchema,
+} from "@tagloom/contracts";
+import { type RequestHandler, Router } from "express";
+import { UnauthorizedError, parseOrThrow } from "@/errors";
+import {
+  confirmPasswordReset,
+  getMe,
+  recordSignOut,
+  requestPasswordReset,
+  resendVerification,
+  signIn,
+  signUp,
+  verifyEmail,
+} from "./auth.service";
+import { endSession, requireSession, startSession } from "./session.middleware";
+
+/** Account routes: /auth/* and /me. `limiter` guards the routes an attacker would hammer. */
+export function authRouter(limiter: RequestHandler): Router {
+  const r = Router();
+
+  r.post("/auth/sign-up", limiter, async (req, res) => {
+    const input = parseOrThrow(signUpInputSchema, req.body);
+    const { userId, organizationId } = await signUp(input, req.ip ?? null);
+    await startSession(res, userId, req.auth?.sessionId ?? null);
+    res.status(201).json({ ...(await getMe(userId)), organizationId });
+  });
+
+  r.post("/auth/sign-in", limiter, async (req, res) => {
+    const input = parseOrThrow(signInInputSchema, req.body);
+    const user = await signIn(input, req.ip ?? null);
+    // A new session id at every sign-in (no fixation of an old cookie).
+    await startSession(res, user.id, req.auth?.sessionId ?? null);
+    res.json(await getMe(user.id));
+  });
+
+  r.post("/auth/sign-out", async (req, res) => {
+    if (req.auth) {
+      await recordSignOut(req.auth.userId, req.auth.email, req.ip ?? null);
+      await endSession(res, req.auth.sessionId);
+    }
+    res.status(204).end();
+  });
+
+  r.post("/auth/password-reset/request", limiter, async (req, res) => {
+    const { email } = parseOrThrow(passwordResetRequestSchema, req.body);
+    await requestPasswordReset(email);
+    res.status(202).json({ ok: true });
+  });
+
+  r.post("/auth/password-reset/confirm", limiter, async (req, res) => {
+    const { token, password } = parseOrThrow(passwordResetConfirmSchema, req.body);
+    await confirmPasswordReset(token, password, req.ip ?? null);
+    res.status(204).end();
+  });
+
+  r.post("/auth/verify-email", async (req, res) => {
+    const { token } = parseOrThrow(verifyEmailInputSchema, req.body);
+    await verifyEmail(token, req.ip ?? null);
+    res.status(204).end();
+  });
+
+  r.post("/auth/verify-email/resend", limiter, requireSession, async (req, res) => {
+    await resendVerification(req.auth!.userId);
+    res.status(202).json({ ok: true });
+  });
+
+  r.get("/me", async (req, res) => {
+    if (!req.auth) throw new UnauthorizedError();
+    const me = await getMe(req.auth.userId);
+    if (!me) throw new UnauthorizedError();
+    res.json(me);
+  });
+
+  return r;
+}

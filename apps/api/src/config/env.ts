@@ -1,0 +1,54 @@
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { z } from "zod";
+
+/** The repository root, for files the API serves or reads (migrations, the built web app). */
+export const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../../..");
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  HOST: z.string().default("127.0.0.1"),
+  PORT: z.coerce.number().int().min(0).max(65535).default(8080),
+  DATABASE_URL: z.string().url(),
+  /** Base URL written into e-mailed links; defaults to http://HOST:PORT. */
+  PUBLIC_URL: z.string().url().optional(),
+  /** Folder of the built web app; the API serves it when set (start mode). */
+  WEB_DIST: z.string().optional(),
+  LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+  SMTP_HOST: z.string().default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  SMTP_SECURE: z.enum(["true", "false"]).default("false"),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAIL_FROM: z.string().default("Tagloom <no-reply@tagloom.test>"),
+  /** HTTP address of the local mail catcher (development only: the Outbox page reads it). */
+  MAIL_CATCHER_URL: z.string().url().optional(),
+  /** Set to "true" to mark session cookies Secure; defaults to true in production. */
+  COOKIE_SECURE: z.enum(["true", "false"]).optional(),
+  UPLOAD_DIR: z.string().optional(),
+  /** Sign-in, sign-up and password-reset attempts allowed per address per 15 minutes. */
+  AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(20),
+});
+
+export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };
+
+export class EnvError extends Error {}
+
+/** Parses the environment once; lists every missing or invalid variable in one error. */
+export function loadEnv(source: NodeJS.ProcessEnv): Env {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new EnvError(`invalid environment:\n${lines.join("\n")}`);
+  }
+  const e = parsed.data;
+  return {
+    ...e,
+    publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ""),
+    cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === "true" : e.NODE_ENV === "production",
+    uploadDir: e.UPLOAD_DIR ?? path.join(repoRoot, ".data", "uploads"),
+  };
+}
+
+// The only read of process.env in the API.
+export const env: Env = loadEnv(process.env);

@@ -1,0 +1,44 @@
+import { createInvitationInputSchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { requireSession } from "@/auth/session.middleware";
+import { isUuid } from "@/db/types";
+import { NotFoundError, parseOrThrow } from "@/errors";
+import { actorOf, allow, memberOf } from "@/orgs/org-access";
+import { acceptInvitation, createInvitation, listInvitations, previewInvitation, resendInvitation, revokeInvitation } from "./invitations.service";
+
+/** Admin routes below /orgs/:orgId. */
+export const invitationsRouter = Router({ mergeParams: true });
+
+invitationsRouter.get("/invitations", allow(), async (req, res) => {
+  res.json({ items: await listInvitations(memberOf(req).organizationId), nextCursor: null });
+});
+
+invitationsRouter.post("/invitations", allow(), async (req, res) => {
+  const input = parseOrThrow(createInvitationInputSchema, req.body);
+  res.status(201).json(await createInvitation(memberOf(req).organizationId, input, actorOf(req)));
+});
+
+function invitationId(raw: unknown): string {
+  if (!isUuid(raw)) throw new NotFoundError("invitation");
+  return raw;
+}
+
+invitationsRouter.post("/invitations/:invitationId/resend", allow(), async (req, res) => {
+  res.json(await resendInvitation(memberOf(req).organizationId, invitationId(req.params.invitationId), actorOf(req)));
+});
+
+invitationsRouter.delete("/invitations/:invitationId", allow(), async (req, res) => {
+  await revokeInvitation(memberOf(req).organizationId, invitationId(req.params.invitationId), actorOf(req));
+  res.status(204).end();
+});
+
+/** The invitee's routes: see an invitation by its link token, accept it when signed in. */
+export const invitationLinkRouter = Router();
+
+invitationLinkRouter.get("/invitations/:token", async (req, res) => {
+  res.json(await previewInvitation(String(req.params.token)));
+});
+
+invitationLinkRouter.post("/invitations/:token/accept", requireSession, async (req, res) => {
+  res.json(await acceptInvitation(String(req.params.token), actorOf(req)));
+});

@@ -1,0 +1,2 @@
+// Imports every feature's job module so that its defineJob calls run. Add one line per feature.
+import "@/mail/mail.jobs";

@@ -1,0 +1,31 @@
+import { type RequestHandler, Router } from "express";
+import { auditRouter } from "@/audit/audit.routes";
+import { authRouter } from "@/auth/auth.routes";
+import { requireSession } from "@/auth/session.middleware";
+import { devRouter } from "@/dev/dev.routes";
+import { healthRouter } from "@/health/health.routes";
+import { invitationLinkRouter, invitationsRouter } from "@/invitations/invitations.routes";
+import { membersRouter } from "@/members/members.routes";
+import { orgScope } from "@/orgs/org-access";
+import { orgRouter, orgsRouter } from "@/orgs/orgs.routes";
+
+/**
+ * Every API route, relative to /api. Tenant routes go on `org`, which is mounted at
+ * /orgs/:orgId behind the session and membership checks: add one line per feature router.
+ */
+export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router {
+  const api = Router();
+  api.use(healthRouter);
+  api.use(devRouter);
+  api.use(authRouter(options.authLimiter));
+  api.use(invitationLinkRouter);
+  api.use(orgsRouter);
+
+  const org = Router({ mergeParams: true });
+  org.use(membersRouter);
+  org.use(invitationsRouter);
+  org.use(auditRouter);
+  org.use(orgRouter);
+  api.use("/orgs/:orgId", requireSession, orgScope, org);
+  return api;
+}

@@ -1,0 +1,30 @@
+import type { RequestHandler } from "express";
+import { env } from "@/config/env";
+import { ForbiddenError } from "@/errors";
+
+const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
+
+function originOf(value: string | undefined): string | null {
+  if (!value) return null;
+  try {
+    return new URL(value).origin;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * CSRF defence for cookie sessions: a state-changing request must come from a page of this
+ * service, i.e. carry an Origin (or, failing that, a Referer) equal to the request's own host or
+ * to PUBLIC_URL. Routes authenticated by bearer tokens or signed webhooks are exempt.
+ */
+export function originCheck(exemptPrefixes: readonly string[]): RequestHandler {
+  const publicOrigin = new URL(env.publicUrl).origin;
+  return (req, _res, next) => {
+    if (SAFE.has(req.method) || exemptPrefixes.some((p) => req.originalUrl.startsWith(p))) return next();
+    const origin = originOf(req.get("origin")) ?? originOf(req.get("referer"));
+    const own = `${req.protocol}://${req.get("host")}`;
+    if (origin && (origin === own || origin === publicOrigin)) return next();
+    throw new ForbiddenError(origin ? `Requests from ${origin} are not accepted.` : "The request has no Origin header.");
+  };
+}

@@ -1,0 +1,1 @@
+export { type CaughtMessage, type MailCatcher, startMailCatcher } from "./mail-catcher";
