@@ -1,3 +1,4 @@
 export * from "./accounts";
 export * from "./errors";
 export * from "./health";
+export * from "./spans";

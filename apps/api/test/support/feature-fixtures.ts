@@ -1,0 +1,3 @@
+// Imports each feature's fixture extension (one line per feature) so that buildTenantFixture
+// creates its objects. Keep this list in the order features were added.
+export {};
