@@ -54,6 +54,7 @@ describe("tagsToChunks (CoNLL conlleval convention)", () => {
   });
 });
 
+// Expected tags and spans in the examples below are worked by hand.
 describe("chunksToTags and toIob2", () => {
   it("writes IOB2", () => {
     expect(chunksToTags(5, [{ type: "LOC", start: 3, end: 5 }, { type: "PER", start: 0, end: 1 }])).toEqual(["B-PER", "O", "O", "B-LOC", "I-LOC"]);

@@ -13,6 +13,7 @@ function errorOf(run: () => unknown): ColumnFormatError {
   throw new Error("expected a ColumnFormatError");
 }
 
+// Expected documents and line numbers below are worked by hand from the inputs.
 describe("parseColumnText", () => {
   it("reads a CoNLL-2003-style file with -DOCSTART-, four columns and IOB1 tags", () => {
     // Made-up lines in the layout of the CoNLL-2003 shared task files (Tjong Kim Sang & De Meulder 2003, "Introduction to

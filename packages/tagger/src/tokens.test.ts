@@ -63,6 +63,8 @@ describe("isWhitespaceCode", () => {
 
 describe("tokenizeText: tokens", () => {
   it("recovers offsets for a plain sentence", () => {
+    // Worked by hand from wink-tokenizer 5.3.0's documented behaviour (JSDoc of tokenize(): common
+    // contractions split in two, e.g. "won't" → "wo" + "n't"); "4 pm" is its time class, split here.
     const text = "  Mr. Smith paid $40 at 4 pm, didn't he?";
     const { tokens } = tokenizeText(text);
     expect(tokens.map((t) => text.slice(t.start, t.end))).toEqual([
@@ -82,6 +84,8 @@ describe("tokenizeText: tokens", () => {
   });
 
   it("splits punctuation out of scripts wink has no pattern for, and never keeps whitespace in a token", () => {
+    // Worked by hand: 「」。؟«» are Unicode punctuation (general category P) that wink leaves inside
+    // its "alien" tokens.
     expect(tokenizeWords("「引用」。مرحبا؟ «dit»")).toEqual(["「", "引用", "」", "。", "مرحبا", "؟", "«", "dit", "»"]);
     expect(tokenizeWords("at 4\npm. Go")).toEqual(["at", "4", "pm.", "Go"]);
   });
@@ -164,6 +168,7 @@ describe("splitSentences", () => {
     return sentences.map((s) => text.slice(tokens[s.start].start, tokens[s.end - 1].end));
   };
 
+  // Expected sentences below are worked by hand from the rule documented on splitSentences.
   it("ends sentences after final punctuation, keeping runs and closing quotes", () => {
     expect(sentencesOf('Really?! He said "Stop." Then (quietly) left. Done')).toEqual([
       "Really?!",
@@ -173,7 +178,13 @@ describe("splitSentences", () => {
     ]);
   });
 
+  it("needs whitespace after ASCII terminals but not after CJK ones", () => {
+    expect(sentencesOf("Open file.txt now. Next one!Really. Last")).toEqual(["Open file.txt now.", "Next one!Really.", "Last"]);
+    expect(sentencesOf('He said "Stop."Then left.')).toEqual(['He said "Stop."Then left.']);
+  });
+
   it("does not end after abbreviations and initials", () => {
+    // The abbreviation list is common practice (titles and Latin abbreviations), not from a source.
     expect(sentencesOf("Mr. J. Smith met Dr. Lee, e.g. at noon, etc. and left. Fine.")).toEqual([
       "Mr. J. Smith met Dr. Lee, e.g. at noon, etc. and left.",
       "Fine.",
@@ -185,6 +196,8 @@ describe("splitSentences", () => {
   });
 
   it("uses Unicode sentence terminals", () => {
+    // U+3002 。 and U+061F ؟ carry the Sentence_Terminal property (Unicode Standard Annex #44,
+    // "Unicode Character Database", PropList.txt); U+2026 … is added here by choice.
     expect(sentencesOf("今日は。明日も。")).toEqual(["今日は。", "明日も。"]);
     expect(sentencesOf("مرحبا؟ نعم.")).toEqual(["مرحبا؟", "نعم."]);
     expect(sentencesOf("Wait… what")).toEqual(["Wait…", "what"]);

@@ -119,7 +119,7 @@ function pushPieces(text: string, start: number, end: number, splitPunctuation: 
       i++;
       continue;
     }
-    const width = code >= 0xd800 && code <= 0xdbff && i + 1 < end && isLowSurrogate(text.charCodeAt(i + 1)) ? 2 : 1;
+    const width = isHighSurrogate(code) && i + 1 < end && isLowSurrogate(text.charCodeAt(i + 1)) ? 2 : 1;
     if (splitPunctuation) {
       PUNCTUATION.lastIndex = i;
       if (PUNCTUATION.test(text)) {
@@ -201,6 +201,11 @@ function isRunOf(pattern: RegExp, text: string, start: number, end: number): boo
   return end > start;
 }
 
+function isAscii(text: string, start: number, end: number): boolean {
+  for (let i = start; i < end; i++) if (text.charCodeAt(i) > 0x7f) return false;
+  return true;
+}
+
 function countLineBreaks(text: string, start: number, end: number): number {
   let count = 0;
   for (let i = start; i < end; i++) {
@@ -232,6 +237,8 @@ function isAbbreviationStop(text: string, tokens: readonly Token[], i: number): 
  * - a sentence ends after a token made only of sentence-final punctuation (Unicode
  *   Sentence_Terminal: . ! ? 。 ؟ । and relatives, plus …); a run of such tokens ("?!", ". . .")
  *   and closing quotes or brackets touching the run stay with the sentence they close;
+ * - after ASCII . ! ? the next token must not touch the run ("file.txt", "Yahoo!Mail" stay whole);
+ *   other scripts' terminals need no space after them ("今日は。明日も。");
  * - a "." does not end a sentence when it touches a single letter before it (initials "J.",
  *   "e.g.", "i.e.", "U.S.") or a listed abbreviation (Mr, Dr, etc, ...);
  * - a gap between tokens holding two or more line breaks (a blank line) always ends a sentence.
@@ -242,16 +249,20 @@ export function splitSentences(text: string, tokens: readonly Token[]): Array<{ 
   const sentences: Array<{ start: number; end: number }> = [];
   let sentenceStart = 0;
   let closing = false;
+  let closingIsAscii = false;
   for (let i = 0; i < tokens.length; i++) {
     const token = tokens[i];
+    const isFinal = isRunOf(SENTENCE_FINAL, text, token.start, token.end);
     if (i > 0) {
       const previousEnd = tokens[i - 1].end;
       let boundary = countLineBreaks(text, previousEnd, token.start) >= 2;
       if (!boundary && closing) {
-        const continuesRun =
-          isRunOf(SENTENCE_FINAL, text, token.start, token.end) ||
-          (previousEnd === token.start && isRunOf(CLOSING, text, token.start, token.end));
-        boundary = !continuesRun;
+        const touches = previousEnd === token.start;
+        if (isFinal) closingIsAscii &&= isAscii(text, token.start, token.end);
+        else if (!(touches && isRunOf(CLOSING, text, token.start, token.end))) {
+          if (touches && closingIsAscii) closing = false;
+          else boundary = true;
+        }
       }
       if (boundary) {
         sentences.push({ start: sentenceStart, end: i });
@@ -259,8 +270,9 @@ export function splitSentences(text: string, tokens: readonly Token[]): Array<{ 
         closing = false;
       }
     }
-    if (!closing && isRunOf(SENTENCE_FINAL, text, token.start, token.end)) {
-      closing = !isAbbreviationStop(text, tokens, i);
+    if (!closing && isFinal && !isAbbreviationStop(text, tokens, i)) {
+      closing = true;
+      closingIsAscii = isAscii(text, token.start, token.end);
     }
   }
   if (tokens.length > sentenceStart) sentences.push({ start: sentenceStart, end: tokens.length });

@@ -16,8 +16,9 @@ describe("pairedBootstrap", () => {
     const result = pairedBootstrap({ gold, a, b: a }, { rng: createRng(1) });
     expect(result.delta).toBe(0);
     expect(result.ci).toEqual([0, 0]);
-    // The shifted test counts delta* > 2·delta; with delta = 0 there is no improvement to test and
-    // the documented answer is p = 1 (the literal count would be 0/1000 here, as delta* is always 0).
+    // The shifted test (Berg-Kirkpatrick, Burkett & Klein 2012, EMNLP, §2–3) counts delta* > 2·delta;
+    // with delta = 0 there is no improvement to test, and p = 1 is our documented convention (common
+    // practice; the literal count would be 0/1000 here, as delta* is always 0).
     expect(result.pValue).toBe(1);
     expect(result.samples).toBe(1000);
     // Worked by hand: A finds 2 of 4 gold entities with 3 predictions: P 2/3, R 1/2, F1 4/7.
