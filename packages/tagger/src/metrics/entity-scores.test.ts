@@ -5,7 +5,7 @@ import { computePrf, scoreEntities, tokenAccuracy } from "./entity-scores";
 
 describe("scoreEntities", () => {
   it("matches the seqeval README example", () => {
-    // seqeval README (github.com/chakki-works/seqeval), usage example with classification_report
+    // seqeval README (github.com/chakki-works/seqeval, 1.x), section "Usage", classification_report
     // and accuracy_score; as REFERENCES.md "check 2": MISC P=R=F1=0 (support 1), PER 1 (support 1),
     // micro P=R=F1=0.50, token accuracy 0.80.
     const gold = [["O", "O", "O", "B-MISC", "I-MISC", "I-MISC", "O"], ["B-PER", "I-PER", "O"]];
