@@ -122,3 +122,25 @@ export type OutboxMessage = {
 };
 
 export type AppMeta = { environment: "development" | "test" | "production"; outbox: boolean };
+
+/**
+ * What each role may do (admins may do everything). The API enforces its own guards; the web app
+ * uses this to hide what a role cannot do.
+ */
+export const abilities = {
+  manageMembers: ["admin"],
+  viewAudit: ["admin"],
+  manageBilling: ["admin"],
+  manageCorpora: ["admin", "manager"],
+  manageBatches: ["admin", "manager"],
+  review: ["admin", "manager"],
+  annotate: ["admin", "manager", "data_lead", "annotator"],
+  train: ["admin", "data_lead"],
+  exportData: ["admin", "manager", "data_lead"],
+  manageTokens: ["admin", "data_lead"],
+} as const satisfies Record<string, readonly Role[]>;
+export type Ability = keyof typeof abilities;
+
+export function can(role: Role | null | undefined, ability: Ability): boolean {
+  return role != null && (abilities[ability] as readonly Role[]).includes(role);
+}

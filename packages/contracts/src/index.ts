@@ -2,3 +2,8 @@ export * from "./accounts";
 export * from "./errors";
 export * from "./health";
 export * from "./spans";
+export * from "./corpora";
+export * from "./documents";
+export * from "./annotation";
+export * from "./annotation-review";
+export * from "./span-rules";

@@ -1,0 +1,229 @@
+import type { AnnotationStatus, DocumentSplit, DocumentTokens } from "@tagloom/contracts";
+import { db as defaultDb } from "@/db/knex";
+import { type Db, iso } from "@/db/types";
+
+/** A span as stored: character offsets and the entity type's id (names can change). */
+export type StoredSpan = { start: number; end: number; typeId: string; confidence?: number };
+
+export type DocumentRow = {
+  id: string;
+  corpusId: string;
+  uploadFileId: string | null;
+  title: string;
+  split: DocumentSplit | null;
+  annotationStatus: AnnotationStatus;
+  charCount: number;
+  tokenCount: number;
+  sentenceCount: number;
+  filename: string | null;
+  createdAt: string;
+};
+
+type Raw = {
+  id: string;
+  corpus_id: string;
+  upload_file_id: string | null;
+  title: string;
+  split: DocumentSplit | null;
+  annotation_status: AnnotationStatus;
+  char_count: number;
+  token_count: number;
+  sentence_count: number;
+  filename?: string | null;
+  created_at: Date;
+};
+
+export const toDocumentRow = (r: Raw): DocumentRow => ({
+  id: r.id,
+  corpusId: r.corpus_id,
+  uploadFileId: r.upload_file_id,
+  title: r.title,
+  split: r.split,
+  annotationStatus: r.annotation_status,
+  charCount: r.char_count,
+  tokenCount: r.token_count,
+  sentenceCount: r.sentence_count,
+  filename: r.filename ?? null,
+  createdAt: iso(r.created_at)!,
+});
+
+export const documentColumns = [
+  "d.id",
+  "d.corpus_id",
+  "d.upload_file_id",
+  "d.title",
+  "d.split",
+  "d.annotation_status",
+  "d.char_count",
+  "d.token_count",
+  "d.sentence_count",
+  "d.created_at",
+];
+
+export async function findDocument(organizationId: string, documentId: string, db: Db = defaultDb): Promise<DocumentRow | null> {
+  const r = await db("documents as d")
+    .leftJoin("upload_files as f", "f.id", "d.upload_file_id")
+    .where({ "d.organization_id": organizationId, "d.id": documentId })
+    .first([...documentColumns, "f.filename"]);
+  return r ? toDocumentRow(r) : null;
+}
+
+export async function findDocumentText(organizationId: string, documentId: string, db: Db = defaultDb): Promise<string | null> {
+  const r = await db("documents").where({ organization_id: organizationId, id: documentId }).first("text");
+  return r ? (r.text as string) : null;
+}
+
+export async function findDocumentTokens(organizationId: string, documentId: string, db: Db = defaultDb): Promise<DocumentTokens | null> {
+  const r = await db("document_tokens").where({ organization_id: organizationId, document_id: documentId }).first("starts", "ends", "sentence_starts");
+  return r ? { starts: r.starts, ends: r.ends, sentenceStarts: r.sentence_starts } : null;
+}
+
+export async function findDocumentsByIds(organizationId: string, documentIds: string[], db: Db = defaultDb): Promise<DocumentRow[]> {
+  if (!documentIds.length) return [];
+  const rows = await db("documents as d")
+    .leftJoin("upload_files as f", "f.id", "d.upload_file_id")
+    .where("d.organization_id", organizationId)
+    .whereIn("d.id", documentIds)
+    .select([...documentColumns, "f.filename"]);
+  return rows.map(toDocumentRow);
+}
+
+export async function updateAnnotationStatus(organizationId: string, documentIds: string[], status: AnnotationStatus, db: Db = defaultDb): Promise<number> {
+  if (!documentIds.length) return 0;
+  return db("documents")
+    .where("organization_id", organizationId)
+    .whereIn("id", documentIds)
+    .update({ annotation_status: status, updated_at: db.fn.now() });
+}
+
+export async function findGoldSpans(organizationId: string, documentId: string, db: Db = defaultDb): Promise<StoredSpan[] | null> {
+  const r = await db("document_gold").where({ organization_id: organizationId, document_id: documentId }).first("spans");
+  return r ? (r.spans as StoredSpan[]) : null;
+}
+
+export async function upsertGoldSpans(
+  organizationId: string,
+  documentId: string,
+  spans: StoredSpan[],
+  source: "import" | "review",
+  userId: string | null,
+  db: Db = defaultDb,
+): Promise<void> {
+  await db("document_gold")
+    .insert({ document_id: documentId, organization_id: organizationId, spans: JSON.stringify(spans), source, updated_by: userId })
+    .onConflict("document_id")
+    .merge({ spans: JSON.stringify(spans), source, updated_by: userId, updated_at: db.fn.now() });
+}
+
+export async function findSuggestedSpans(organizationId: string, documentId: string, db: Db = defaultDb): Promise<StoredSpan[] | null> {
+  const r = await db("document_suggestions").where({ organization_id: organizationId, document_id: documentId }).first("spans");
+  return r ? (r.spans as StoredSpan[]) : null;
+}
+
+type SpanTable = "document_gold" | "document_suggestions";
+
+/** How many spans of the type a span table holds, and in how many documents. */
+export async function summarizeSpansOfType(
+  table: SpanTable,
+  organizationId: string,
+  typeId: string,
+  db: Db = defaultDb,
+): Promise<{ spans: number; documents: number }> {
+  const r = await db.raw(
+    `SELECT count(*)::int AS documents,
+            coalesce(sum((SELECT count(*) FROM jsonb_array_elements(t.spans) s WHERE s->>'typeId' = ?)), 0)::int AS spans
+     FROM ?? t WHERE t.organization_id = ? AND t.spans @> ?::jsonb`,
+    [typeId, table, organizationId, JSON.stringify([{ typeId }])],
+  );
+  return { spans: r.rows[0].spans, documents: r.rows[0].documents };
+}
+
+/** Drops the type's spans from every row of a span table (order of the rest kept); returns the count removed. */
+export async function removeSpansOfType(table: SpanTable, organizationId: string, typeId: string, db: Db): Promise<number> {
+  const { spans } = await summarizeSpansOfType(table, organizationId, typeId, db);
+  if (spans === 0) return 0;
+  await db.raw(
+    `UPDATE ?? t SET spans = coalesce(
+       (SELECT jsonb_agg(e.s ORDER BY e.ord) FROM jsonb_array_elements(t.spans) WITH ORDINALITY AS e(s, ord) WHERE e.s->>'typeId' <> ?),
+       '[]'::jsonb)
+     WHERE t.organization_id = ? AND t.spans @> ?::jsonb`,
+    [table, typeId, organizationId, JSON.stringify([{ typeId }])],
+  );
+  return spans;
+}
+
+export type NewDocument = {
+  organizationId: string;
+  corpusId: string;
+  uploadFileId: string | null;
+  sourceIndex: number;
+  title: string;
+  text: string;
+  contentHash: string;
+  split: DocumentSplit | null;
+  annotationStatus: AnnotationStatus;
+  tokens: DocumentTokens;
+  gold?: { spans: StoredSpan[]; userId: string | null } | undefined;
+  suggestions?: StoredSpan[] | undefined;
+};
+
+const INSERT_CHUNK = 250;
+
+/**
+ * Inserts documents with their tokens and spans. A document whose (upload file, index) already
+ * exists is skipped with its tokens and spans, so a retried import never adds one twice.
+ * Returns the ids of the documents inserted now.
+ */
+export async function insertDocuments(docs: NewDocument[], db: Db): Promise<string[]> {
+  const inserted: string[] = [];
+  for (let i = 0; i < docs.length; i += INSERT_CHUNK) {
+    const chunk = docs.slice(i, i + INSERT_CHUNK);
+    const rows: Array<{ id: string; upload_file_id: string | null; source_index: number }> = await db("documents")
+      .insert(
+        chunk.map((d) => ({
+          organization_id: d.organizationId,
+          corpus_id: d.corpusId,
+          upload_file_id: d.uploadFileId,
+          source_index: d.sourceIndex,
+          title: d.title,
+          text: d.text,
+          content_hash: d.contentHash,
+          split: d.split,
+          annotation_status: d.annotationStatus,
+          char_count: d.text.length,
+          token_count: d.tokens.starts.length,
+          sentence_count: d.tokens.sentenceStarts.length,
+        })),
+      )
+      .onConflict(db.raw("(upload_file_id, source_index)"))
+      .ignore()
+      .returning(["id", "upload_file_id", "source_index"]);
+    const key = (fileId: string | null, index: number) => `${fileId ?? ""}:${index}`;
+    const byKey = new Map(chunk.map((d) => [key(d.uploadFileId, d.sourceIndex), d]));
+    const tokenRows: object[] = [];
+    const goldRows: object[] = [];
+    const suggestionRows: object[] = [];
+    for (const r of rows) {
+      const d = byKey.get(key(r.upload_file_id, r.source_index));
+      if (!d) continue;
+      inserted.push(r.id);
+      tokenRows.push({
+        document_id: r.id,
+        organization_id: d.organizationId,
+        starts: d.tokens.starts,
+        ends: d.tokens.ends,
+        sentence_starts: d.tokens.sentenceStarts,
+      });
+      if (d.gold) {
+        goldRows.push({ document_id: r.id, organization_id: d.organizationId, spans: JSON.stringify(d.gold.spans), source: "import", updated_by: d.gold.userId });
+      }
+      if (d.suggestions) {
+        suggestionRows.push({ document_id: r.id, organization_id: d.organizationId, spans: JSON.stringify(d.suggestions), source: "import" });
+      }
+    }
+    if (tokenRows.length) await db("document_tokens").insert(tokenRows);
+    if (goldRows.length) await db("document_gold").insert(goldRows);
+    if (suggestionRows.length) await db("document_suggestions").insert(suggestionRows);
+  }
+  return inserted;
+}

@@ -1,0 +1,112 @@
+import { type ChildProcess, spawn, spawnSync } from "node:child_process";
+import fs from "node:fs";
+import net from "node:net";
+import path from "node:path";
+import { type MailCatcher, startMailCatcher } from "@tagloom/fakes";
+import { type TempPostgres, startTempPostgres } from "../../../../docker-free-scripts/lib/temp-postgres.mjs";
+
+const webDir = path.resolve(import.meta.dirname, "../..");
+const apiDir = path.resolve(webDir, "../api");
+const tsx = path.join(apiDir, "node_modules/.bin/tsx");
+
+export type Product = { baseUrl: string; mailUrl: string; stop: () => Promise<void> };
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.on("error", reject);
+    srv.listen(0, "127.0.0.1", () => {
+      const { port } = srv.address() as net.AddressInfo;
+      srv.close(() => resolve(port));
+    });
+  });
+}
+
+async function waitForHealth(url: string, child: ChildProcess, log: () => string, timeoutMs = 60_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`the API exited (${child.exitCode}):\n${log()}`);
+    try {
+      const res = await fetch(`${url}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`the API did not become healthy within ${timeoutMs} ms:\n${log()}`);
+}
+
+function stopChild(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null || child.signalCode !== null) return Promise.resolve();
+  return new Promise((resolve) => {
+    const timer = setTimeout(() => child.kill("SIGKILL"), 8000);
+    child.once("exit", () => {
+      clearTimeout(timer);
+      resolve();
+    });
+    child.kill("SIGTERM");
+  });
+}
+
+/**
+ * Starts the whole product the way `npm start` does, but private to this test run: a throwaway
+ * PostgreSQL, the migrations, the mail catcher, the API serving the built web app, and a worker.
+ */
+export async function startProduct(): Promise<Product> {
+  const dist = path.join(webDir, "dist");
+  if (!fs.existsSync(path.join(dist, "index.html"))) {
+    const build = spawnSync("npx", ["vite", "build"], { cwd: webDir, stdio: "inherit" });
+    if (build.status !== 0) throw new Error("vite build failed");
+  }
+  let pg: TempPostgres | null = null;
+  let mail: MailCatcher | null = null;
+  const children: ChildProcess[] = [];
+  try {
+    pg = await startTempPostgres({ label: "e2e" });
+    mail = await startMailCatcher();
+    const port = await freePort();
+    const baseUrl = `http://127.0.0.1:${port}`;
+    const env = {
+      ...process.env,
+      NODE_ENV: "development",
+      DATABASE_URL: pg.url,
+      HOST: "127.0.0.1",
+      PORT: String(port),
+      PUBLIC_URL: baseUrl,
+      WEB_DIST: dist,
+      SMTP_PORT: String(mail.smtpPort),
+      MAIL_CATCHER_URL: mail.httpUrl,
+      LOG_LEVEL: "warn",
+      AUTH_RATE_LIMIT: "1000",
+    };
+    const migrate = spawnSync(tsx, ["src/db/migrate-cli.ts", "latest"], { cwd: apiDir, env, encoding: "utf8" });
+    if (migrate.status !== 0) throw new Error(`migrations failed: ${migrate.stderr}${migrate.stdout}`);
+    let output = "";
+    const spawnApp = (entry: string) => {
+      const child = spawn(tsx, [entry], { cwd: apiDir, env, stdio: ["ignore", "pipe", "pipe"] });
+      child.stdout?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-20_000)));
+      child.stderr?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-20_000)));
+      children.push(child);
+      return child;
+    };
+    const api = spawnApp("src/server.ts");
+    spawnApp("src/worker.ts");
+    await waitForHealth(baseUrl, api, () => output);
+    const started = { pg, mail };
+    return {
+      baseUrl,
+      mailUrl: mail.httpUrl,
+      stop: async () => {
+        await Promise.all(children.map(stopChild));
+        await started.mail.stop();
+        started.pg.stop();
+      },
+    };
+  } catch (err) {
+    await Promise.all(children.map(stopChild));
+    await mail?.stop();
+    pg?.stop();
+    throw err;
+  }
+}

@@ -1,0 +1,46 @@
+import { createBrowserRouter, type RouteObject } from "react-router";
+import { paths } from "@/config/paths";
+import { AreaPlaceholder } from "./routes/area-placeholder";
+import { AuditRoute } from "./routes/audit";
+import { ForgotPasswordRoute } from "./routes/forgot-password";
+import { InvitationRoute } from "./routes/invitation";
+import { MembersRoute } from "./routes/members";
+import { NewOrganizationRoute } from "./routes/new-organization";
+import { NotFoundRoute } from "./routes/not-found";
+import { OrgHomeRoute } from "./routes/org-home";
+import { OrgLayoutRoute, RootRedirectRoute } from "./routes/org-layout";
+import { OrgSettingsRoute } from "./routes/org-settings";
+import { OutboxRoute } from "./routes/outbox";
+import { ResetPasswordRoute } from "./routes/reset-password";
+import { SignInRoute } from "./routes/sign-in";
+import { SignUpRoute } from "./routes/sign-up";
+import { VerifyEmailRoute } from "./routes/verify-email";
+
+/** Screens inside an organization, relative to /o/:orgId. Features add their routes here. */
+const orgRoutes: RouteObject[] = [
+  { index: true, element: <OrgHomeRoute /> },
+  { path: "members", element: <MembersRoute /> },
+  { path: "audit", element: <AuditRoute /> },
+  { path: "settings", element: <OrgSettingsRoute /> },
+  { path: "corpora/*", element: <AreaPlaceholder title="Corpora" what="Corpora, entity schemas and document uploads arrive with the documents work." /> },
+  { path: "queue", element: <AreaPlaceholder title="My queue" what="Assignments arrive with the annotation work." /> },
+  { path: "batches/*", element: <AreaPlaceholder title="Batches" what="Batches arrive with the annotation work." /> },
+  { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },
+  { path: "billing", element: <AreaPlaceholder title="Billing" what="Seats and billing arrive with the billing work." /> },
+];
+
+export const routes: RouteObject[] = [
+  { path: paths.home.path, element: <RootRedirectRoute /> },
+  { path: paths.signIn.path, element: <SignInRoute /> },
+  { path: paths.signUp.path, element: <SignUpRoute /> },
+  { path: paths.forgotPassword.path, element: <ForgotPasswordRoute /> },
+  { path: paths.resetPassword.path, element: <ResetPasswordRoute /> },
+  { path: paths.verifyEmail.path, element: <VerifyEmailRoute /> },
+  { path: paths.invitation.path, element: <InvitationRoute /> },
+  { path: paths.newOrganization.path, element: <NewOrganizationRoute /> },
+  { path: paths.outbox.path, element: <OutboxRoute /> },
+  { path: paths.org.root.path, element: <OrgLayoutRoute />, children: orgRoutes },
+  { path: "*", element: <NotFoundRoute /> },
+];
+
+export const router = createBrowserRouter(routes);

@@ -1,0 +1,88 @@
+import { useState } from "react";
+import { Button } from "@/components/ui/button";
+import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Field, Input, Select } from "@/components/ui/field";
+import { type AuditFilters, useAudit } from "@/features/audit/api/get-audit";
+import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+
+/** Turns a yyyy-mm-dd date input into the ISO instant of that local midnight. */
+function dayStart(value: string, addDays = 0): string | undefined {
+  if (!value) return undefined;
+  const d = new Date(`${value}T00:00:00`);
+  d.setDate(d.getDate() + addDays);
+  return d.toISOString();
+}
+
+export function AuditRoute() {
+  const org = useCurrentOrg();
+  const [action, setAction] = useState("");
+  const [actor, setActor] = useState("");
+  const [from, setFrom] = useState("");
+  const [to, setTo] = useState("");
+  const filters: AuditFilters = { action: action || undefined, actor: actor.trim() || undefined, from: dayStart(from), to: dayStart(to, 1) };
+  const audit = useAudit(org.organizationId, filters);
+  const events = audit.data?.pages.flatMap((p) => p.items) ?? [];
+  const actions = audit.data?.pages[0]?.actions ?? [];
+  return (
+    <div className="max-w-6xl space-y-6">
+      <PageHeader title="Audit log" subtitle="Who did what, when, and to which object. Newest first." />
+      <div className="grid gap-3 rounded-lg border border-ink-100 bg-white p-4 sm:grid-cols-4">
+        <Field label="Action">
+          {(id) => (
+            <Select id={id} value={action} onChange={(e) => setAction(e.target.value)}>
+              <option value="">All actions</option>
+              {actions.map((a) => (
+                <option key={a} value={a}>
+                  {a}
+                </option>
+              ))}
+            </Select>
+          )}
+        </Field>
+        <Field label="Who (e-mail contains)">{(id) => <Input id={id} value={actor} onChange={(e) => setActor(e.target.value)} />}</Field>
+        <Field label="From">{(id) => <Input id={id} type="date" value={from} onChange={(e) => setFrom(e.target.value)} />}</Field>
+        <Field label="To (inclusive)">{(id) => <Input id={id} type="date" value={to} onChange={(e) => setTo(e.target.value)} />}</Field>
+      </div>
+      {audit.isPending ? (
+        <Spinner />
+      ) : audit.isError ? (
+        <Notice tone="error">{audit.error.message}</Notice>
+      ) : events.length === 0 ? (
+        <EmptyState title="No events match these filters" />
+      ) : (
+        <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
+          <table className="w-full text-left text-sm">
+            <caption className="sr-only">Audit events</caption>
+            <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">
+              <tr>
+                <th className="px-4 py-2.5">When</th>
+                <th className="px-4 py-2.5">Who</th>
+                <th className="px-4 py-2.5">Action</th>
+                <th className="px-4 py-2.5">Object</th>
+                <th className="px-4 py-2.5">Details</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-ink-50">
+              {events.map((e) => (
+                <tr key={e.id}>
+                  <td className="px-4 py-2 whitespace-nowrap text-ink-500">{new Date(e.createdAt).toLocaleString()}</td>
+                  <td className="px-4 py-2">{e.actor}</td>
+                  <td className="px-4 py-2 font-mono text-xs">{e.action}</td>
+                  <td className="px-4 py-2">{e.targetLabel ?? e.targetId ?? "—"}</td>
+                  <td className="px-4 py-2 font-mono text-xs text-ink-500">
+                    {Object.keys(e.details).length ? JSON.stringify(e.details) : ""}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {audit.hasNextPage ? (
+        <Button variant="secondary" busy={audit.isFetchingNextPage} onClick={() => void audit.fetchNextPage()}>
+          Show older events
+        </Button>
+      ) : null}
+    </div>
+  );
+}

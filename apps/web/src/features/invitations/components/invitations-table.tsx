@@ -1,0 +1,80 @@
+import { type Invitation, roleLabels } from "@tagloom/contracts";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { useMemo, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { Notice } from "@/components/ui/card";
+import { DataTable } from "@/components/ui/data-table";
+import { useToast } from "@/components/ui/toaster";
+import { cn } from "@/lib/cn";
+import { useResendInvitation, useRevokeInvitation } from "../api/invitations";
+
+const col = createColumnHelper<Invitation>();
+const statusText: Record<Invitation["status"], string> = { pending: "Waiting", accepted: "Joined", revoked: "Withdrawn", expired: "Expired" };
+
+export function InvitationsTable({ orgId, invitations }: { orgId: string; invitations: Invitation[] }) {
+  const resend = useResendInvitation(orgId);
+  const revoke = useRevokeInvitation(orgId);
+  const toast = useToast();
+  const [error, setError] = useState<string | null>(null);
+  const columns = useMemo(
+    () => [
+      col.accessor("email", { header: "E-mail" }),
+      col.accessor("role", { header: "Role", cell: (c) => roleLabels[c.getValue()] }),
+      col.accessor("status", {
+        header: "Status",
+        cell: (c) => (
+          <span
+            className={cn(
+              "rounded-full px-2 py-0.5 text-xs font-medium",
+              c.getValue() === "pending" && "bg-thread-100 text-thread-700",
+              c.getValue() === "accepted" && "bg-moss-500/10 text-moss-500",
+              (c.getValue() === "revoked" || c.getValue() === "expired") && "bg-ink-50 text-ink-500",
+            )}
+          >
+            {statusText[c.getValue()]}
+          </span>
+        ),
+      }),
+      col.accessor("lastSentAt", {
+        header: "Last sent",
+        cell: (c) => `${new Date(c.getValue()).toLocaleString()}${c.row.original.sendCount > 1 ? ` (${c.row.original.sendCount}×)` : ""}`,
+      }),
+      col.accessor("expiresAt", { header: "Expires", cell: (c) => new Date(c.getValue()).toLocaleDateString() }),
+      col.display({
+        id: "actions",
+        header: () => <span className="sr-only">Actions</span>,
+        cell: (c) => {
+          const inv = c.row.original;
+          if (inv.status !== "pending" && inv.status !== "expired") return null;
+          return (
+            <span className="flex justify-end gap-1">
+              <Button
+                size="sm"
+                variant="ghost"
+                onClick={() => {
+                  setError(null);
+                  resend.mutate(inv.id, { onSuccess: () => toast.show(`Sent again to ${inv.email}.`, "success"), onError: (e) => setError(e.message) });
+                }}
+              >
+                Send again
+              </Button>
+              {inv.status === "pending" ? (
+                <Button size="sm" variant="ghost" onClick={() => revoke.mutate(inv.id, { onError: (e) => setError(e.message) })}>
+                  Withdraw
+                </Button>
+              ) : null}
+            </span>
+          );
+        },
+      }),
+    ],
+    [resend, revoke, toast],
+  );
+  const table = useReactTable({ data: invitations, columns, getCoreRowModel: getCoreRowModel(), getRowId: (i) => i.id });
+  return (
+    <div className="space-y-3">
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <DataTable table={table} flexRender={flexRender} caption="Invitations" />
+    </div>
+  );
+}
