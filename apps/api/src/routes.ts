@@ -1,4 +1,7 @@
 import { type RequestHandler, Router } from "express";
+import { assignmentsRouter } from "@/annotation/assignments.routes";
+import { batchesRouter } from "@/annotation/batches.routes";
+import { reviewRouter } from "@/annotation/review.routes";
 import { auditRouter } from "@/audit/audit.routes";
 import { authRouter } from "@/auth/auth.routes";
 import { requireSession } from "@/auth/session.middleware";
@@ -25,6 +28,9 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(membersRouter);
   org.use(invitationsRouter);
   org.use(auditRouter);
+  org.use(batchesRouter);
+  org.use(assignmentsRouter);
+  org.use(reviewRouter);
   org.use(orgRouter);
   api.use("/orgs/:orgId", requireSession, orgScope, org);
   return api;

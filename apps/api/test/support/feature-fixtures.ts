@@ -1,3 +1,4 @@
 // Imports each feature's fixture extension (one line per feature) so that buildTenantFixture
 // creates its objects. Keep this list in the order features were added.
+import "./fixtures/annotation";
 export {};

@@ -22,6 +22,7 @@ export type CatalogRoute = {
 
 const ALL: readonly Role[] = ["admin", "manager", "data_lead", "annotator"];
 const ADMIN: readonly Role[] = ["admin"];
+const MANAGER: readonly Role[] = ["admin", "manager"];
 const NO_SUCH_ID = "00000000-0000-4000-8000-000000000000";
 
 /** Every tenant route. Each feature adds its routes here; tenancy.test.ts runs them all. */
@@ -49,6 +50,51 @@ export const routeCatalog: CatalogRoute[] = [
   { method: "post", path: (f) => `/orgs/${f.orgId}/invitations/${f.invitationId}/resend`, roles: ADMIN },
   { method: "delete", path: (f) => `/orgs/${f.orgId}/invitations/${f.invitationId}`, roles: ADMIN },
   { method: "get", path: (f) => `/orgs/${f.orgId}/audit`, roles: ADMIN },
+  // Batches, assignments and review (issue 6).
+  { method: "get", path: (f) => `/orgs/${f.orgId}/batches`, roles: MANAGER },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches`, roles: MANAGER },
+  {
+    method: "post",
+    path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches`,
+    roles: MANAGER,
+    body: (f) => ({ name: "Intruder batch", documentIds: [f.ids.batchDocumentId], assignment: { mode: "round_robin", annotatorIds: [f.annotator.userId], annotatorsPerDocument: 1 } }),
+    probe: () => ({ name: "" }),
+  },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}`, roles: MANAGER },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}/agreement`, roles: MANAGER },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/queue`, roles: ALL },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}`, roles: ALL },
+  {
+    method: "put",
+    path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}`,
+    roles: ALL,
+    body: () => ({ version: 0, spans: [{ start: 0, end: 4, type: "PERSON" }] }),
+    probe: () => ({ version: -1, spans: [] }),
+  },
+  {
+    method: "post",
+    path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}/submit`,
+    roles: ALL,
+    body: () => ({ version: 0 }),
+    probe: () => ({ version: "latest" }),
+  },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/review`, roles: MANAGER },
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}/documents/${f.ids.batchDocumentId}/review`, roles: MANAGER },
+  {
+    method: "post",
+    path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}/documents/${f.ids.batchDocumentId}/settle`,
+    roles: MANAGER,
+    body: () => ({ spans: [{ start: 0, end: 4, type: "PERSON" }] }),
+    probe: () => ({ spans: "none" }),
+  },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}/accept`, roles: MANAGER },
+  {
+    method: "post",
+    path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}/return`,
+    roles: MANAGER,
+    body: () => ({ comment: "Please look again." }),
+    probe: () => ({ comment: "" }),
+  },
 ];
 
 /** For routes whose probe must not act on the fixture's real object. */

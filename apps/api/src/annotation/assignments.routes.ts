@@ -1,0 +1,30 @@
+import { saveAssignmentInputSchema, submitAssignmentInputSchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { parseOrThrow } from "@/errors";
+import { actorOf, anyMember, memberOf } from "@/orgs/org-access";
+import { getAssignmentView, getQueue, saveAssignment, submitAssignment } from "./assignments.service";
+import "./entity-type-store";
+
+/**
+ * An annotator's work, below /orgs/:orgId. Every member may have assignments; the service lets
+ * annotators reach only their own (others' answer 404) and managers and admins all of them.
+ */
+export const assignmentsRouter = Router({ mergeParams: true });
+
+assignmentsRouter.get("/queue", anyMember, async (req, res) => {
+  res.json(await getQueue(memberOf(req)));
+});
+
+assignmentsRouter.get("/corpora/:corpusId/assignments/:assignmentId", anyMember, async (req, res) => {
+  res.json(await getAssignmentView(memberOf(req), String(req.params.corpusId), String(req.params.assignmentId)));
+});
+
+assignmentsRouter.put("/corpora/:corpusId/assignments/:assignmentId", anyMember, async (req, res) => {
+  const input = parseOrThrow(saveAssignmentInputSchema, req.body);
+  res.json(await saveAssignment(memberOf(req), String(req.params.corpusId), String(req.params.assignmentId), input));
+});
+
+assignmentsRouter.post("/corpora/:corpusId/assignments/:assignmentId/submit", anyMember, async (req, res) => {
+  const { version } = parseOrThrow(submitAssignmentInputSchema, req.body);
+  res.json(await submitAssignment(memberOf(req), String(req.params.corpusId), String(req.params.assignmentId), version, actorOf(req)));
+});

@@ -1,0 +1,39 @@
+import { createBatchInputSchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { z } from "zod";
+import { parseOrThrow } from "@/errors";
+import { actorOf, allow, memberOf } from "@/orgs/org-access";
+import { createBatch, getBatchDetail, getBatchesPage } from "./batches.service";
+import { getBatchAgreement } from "./review.service";
+
+const batchListQuerySchema = z.object({
+  corpusId: z.uuid("Not a corpus id.").optional(),
+  cursor: z.string().max(500).optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+/** Batches (managers and admins), below /orgs/:orgId. */
+export const batchesRouter = Router({ mergeParams: true });
+
+batchesRouter.get("/batches", allow("manager"), async (req, res) => {
+  const query = parseOrThrow(batchListQuerySchema, req.query, "query");
+  res.json(await getBatchesPage(memberOf(req).organizationId, query));
+});
+
+batchesRouter.get("/corpora/:corpusId/batches", allow("manager"), async (req, res) => {
+  const query = parseOrThrow(batchListQuerySchema.omit({ corpusId: true }), req.query, "query");
+  res.json(await getBatchesPage(memberOf(req).organizationId, { ...query, corpusId: String(req.params.corpusId) }));
+});
+
+batchesRouter.post("/corpora/:corpusId/batches", allow("manager"), async (req, res) => {
+  const input = parseOrThrow(createBatchInputSchema, req.body);
+  res.status(201).json(await createBatch(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
+});
+
+batchesRouter.get("/corpora/:corpusId/batches/:batchId", allow("manager"), async (req, res) => {
+  res.json(await getBatchDetail(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.batchId)));
+});
+
+batchesRouter.get("/corpora/:corpusId/batches/:batchId/agreement", allow("manager"), async (req, res) => {
+  res.json(await getBatchAgreement(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.batchId)));
+});
