@@ -1,4 +1,7 @@
+import type { AuditEvent } from "@tagloom/contracts";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { useState } from "react";
+import { DataTable } from "@/components/ui/data-table";
 import { Button } from "@/components/ui/button";
 import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
 import { Field, Input, Select } from "@/components/ui/field";
@@ -50,33 +53,7 @@ export function AuditRoute() {
       ) : events.length === 0 ? (
         <EmptyState title="No events match these filters" />
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Audit events</caption>
-            <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">
-              <tr>
-                <th className="px-4 py-2.5">When</th>
-                <th className="px-4 py-2.5">Who</th>
-                <th className="px-4 py-2.5">Action</th>
-                <th className="px-4 py-2.5">Object</th>
-                <th className="px-4 py-2.5">Details</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-50">
-              {events.map((e) => (
-                <tr key={e.id}>
-                  <td className="px-4 py-2 whitespace-nowrap text-ink-500">{new Date(e.createdAt).toLocaleString()}</td>
-                  <td className="px-4 py-2">{e.actor}</td>
-                  <td className="px-4 py-2 font-mono text-xs">{e.action}</td>
-                  <td className="px-4 py-2">{e.targetLabel ?? e.targetId ?? "—"}</td>
-                  <td className="px-4 py-2 font-mono text-xs text-ink-500">
-                    {Object.keys(e.details).length ? JSON.stringify(e.details) : ""}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <AuditTable events={events} />
       )}
       {audit.hasNextPage ? (
         <Button variant="secondary" busy={audit.isFetchingNextPage} onClick={() => void audit.fetchNextPage()}>
@@ -85,4 +62,21 @@ export function AuditRoute() {
       ) : null}
     </div>
   );
+}
+
+const col = createColumnHelper<AuditEvent>();
+const columns = [
+  col.accessor("createdAt", { header: "When", cell: (c) => <span className="whitespace-nowrap text-ink-500">{new Date(c.getValue()).toLocaleString()}</span> }),
+  col.accessor("actor", { header: "Who" }),
+  col.accessor("action", { header: "Action", cell: (c) => <span className="font-mono text-xs">{c.getValue()}</span> }),
+  col.display({ id: "object", header: "Object", cell: (c) => c.row.original.targetLabel ?? c.row.original.targetId ?? "—" }),
+  col.accessor("details", {
+    header: "Details",
+    cell: (c) => <span className="font-mono text-xs text-ink-500">{Object.keys(c.getValue()).length ? JSON.stringify(c.getValue()) : ""}</span>,
+  }),
+];
+
+function AuditTable({ events }: { events: AuditEvent[] }) {
+  const table = useReactTable({ data: events, columns, getCoreRowModel: getCoreRowModel(), getRowId: (e) => e.id });
+  return <DataTable table={table} flexRender={flexRender} caption="Audit events" />;
 }
