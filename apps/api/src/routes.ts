@@ -5,12 +5,17 @@ import { reviewRouter } from "@/annotation/review.routes";
 import { auditRouter } from "@/audit/audit.routes";
 import { authRouter } from "@/auth/auth.routes";
 import { requireSession } from "@/auth/session.middleware";
+import { corporaRouter } from "@/corpora/corpora.routes";
+import { entityTypesRouter } from "@/corpora/entity-types.routes";
 import { devRouter } from "@/dev/dev.routes";
+import { documentsRouter } from "@/documents/documents.routes";
+import { exportsRouter } from "@/exports/exports.routes";
 import { healthRouter } from "@/health/health.routes";
 import { invitationLinkRouter, invitationsRouter } from "@/invitations/invitations.routes";
 import { membersRouter } from "@/members/members.routes";
 import { orgScope } from "@/orgs/org-access";
 import { orgRouter, orgsRouter } from "@/orgs/orgs.routes";
+import { uploadsRouter } from "@/uploads/uploads.routes";
 
 /**
  * Every API route, relative to /api. Tenant routes go on `org`, which is mounted at
@@ -28,6 +33,11 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(membersRouter);
   org.use(invitationsRouter);
   org.use(auditRouter);
+  org.use(corporaRouter);
+  org.use(entityTypesRouter);
+  org.use(documentsRouter);
+  org.use(uploadsRouter);
+  org.use(exportsRouter);
   org.use(batchesRouter);
   org.use(assignmentsRouter);
   org.use(reviewRouter);

@@ -28,6 +28,11 @@ const envSchema = z.object({
   UPLOAD_DIR: z.string().optional(),
   /** Sign-in, sign-up and password-reset attempts allowed per address per 15 minutes. */
   AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(20),
+  /** Upload limits (enforced before any file is read): bytes per file, files and bytes per upload, characters per document. */
+  UPLOAD_MAX_FILE_BYTES: z.coerce.number().int().min(1).default(20 * 1024 * 1024),
+  UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(100 * 1024 * 1024),
+  UPLOAD_MAX_DOCUMENT_CHARS: z.coerce.number().int().min(1).default(500_000),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

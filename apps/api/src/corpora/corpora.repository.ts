@@ -41,7 +41,8 @@ export async function findCorpusByName(organizationId: string, name: string, db:
   return r ? toCorpus(r) : null;
 }
 
-export type CorpusRowWithCounts = Corpus & { documentCount: number; entityTypeCount: number };
+/** `cursorAt` is created_at as PostgreSQL text: exact to the microsecond, unlike a JS Date. */
+export type CorpusRowWithCounts = Corpus & { documentCount: number; entityTypeCount: number; cursorAt: string };
 
 /** Newest first; `after` is the last row of the previous page. */
 export async function listCorpora(
@@ -52,7 +53,8 @@ export async function listCorpora(
   const q = db("corpora as c")
     .where("c.organization_id", organizationId)
     .select(
-      columns.map((c) => `c.${c}`),
+      ...columns.map((c) => `c.${c}`),
+      db.raw("c.created_at::text AS cursor_at"),
       db.raw("(SELECT count(*) FROM documents d WHERE d.corpus_id = c.id) AS document_count"),
       db.raw("(SELECT count(*) FROM entity_types t WHERE t.corpus_id = c.id) AS entity_type_count"),
     );
@@ -60,8 +62,9 @@ export async function listCorpora(
   if (options.archived === "false") q.whereNull("c.archived_at");
   if (options.after) q.andWhereRaw("(c.created_at, c.id) < (?::timestamptz, ?::uuid)", [options.after.createdAt, options.after.id]);
   const rows = await q.orderBy([{ column: "c.created_at", order: "desc" }, { column: "c.id", order: "desc" }]).limit(options.limit);
-  return rows.map((r: Raw & { document_count: number; entity_type_count: number }) => ({
+  return rows.map((r: Raw & { document_count: number; entity_type_count: number; cursor_at: string }) => ({
     ...toCorpus(r),
+    cursorAt: r.cursor_at,
     documentCount: Number(r.document_count),
     entityTypeCount: Number(r.entity_type_count),
   }));

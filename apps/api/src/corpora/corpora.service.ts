@@ -15,6 +15,12 @@ import {
   updateCorpus,
 } from "./corpora.repository";
 import { listEntityTypeRows } from "./entity-types.repository";
+import { decodePageCursor, encodePageCursor } from "./page-cursor";
+
+function afterOf(cursor: string | undefined): { createdAt: string; id: string } | undefined {
+  const c = decodePageCursor(cursor, "timestamp");
+  return c ? { createdAt: String(c.value), id: c.id } : undefined;
+}
 
 /** The corpus of the organization; NotFoundError when it is missing or another organization's. */
 export async function getCorpus(organizationId: string, corpusId: string, db?: Db): Promise<Corpus> {
@@ -37,27 +43,15 @@ export async function listEntityTypes(organizationId: string, corpusId: string, 
   return listEntityTypeRows(organizationId, corpusId, db);
 }
 
-function encodeCursor(c: { createdAt: string; id: string }): string {
-  return Buffer.from(JSON.stringify([c.createdAt, c.id])).toString("base64url");
-}
-
-function decodeCursor(cursor: string | undefined): { createdAt: string; id: string } | undefined {
-  if (!cursor) return undefined;
-  try {
-    const [createdAt, id] = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8")) as [unknown, unknown];
-    if (typeof createdAt !== "string" || Number.isNaN(Date.parse(createdAt)) || !isUuid(id)) throw new Error("bad cursor");
-    return { createdAt, id };
-  } catch {
-    throw new ValidationError("The cursor is not valid.", { fields: { cursor: ["Invalid cursor."] } });
-  }
-}
-
 export async function getCorporaPage(organizationId: string, query: CorpusListQuery): Promise<Page<CorpusSummary>> {
-  const rows = await listCorpora(organizationId, { archived: query.archived, limit: query.limit + 1, after: decodeCursor(query.cursor) });
+  const rows = await listCorpora(organizationId, { archived: query.archived, limit: query.limit + 1, after: afterOf(query.cursor) });
   const more = rows.length > query.limit;
-  const items = more ? rows.slice(0, query.limit) : rows;
-  const last = items[items.length - 1];
-  return { items, nextCursor: more && last ? encodeCursor(last) : null };
+  const page = more ? rows.slice(0, query.limit) : rows;
+  const last = page[page.length - 1];
+  return {
+    items: page.map(({ cursorAt: _cursorAt, ...corpus }) => corpus),
+    nextCursor: more && last ? encodePageCursor(last.cursorAt, last.id) : null,
+  };
 }
 
 export async function getCorpusDetail(organizationId: string, corpusId: string): Promise<CorpusDetail> {

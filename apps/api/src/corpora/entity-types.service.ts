@@ -10,7 +10,7 @@ import { db as defaultDb } from "@/db/knex";
 import { type Db, isUuid } from "@/db/types";
 import { countStoredSpansOfType, removeStoredSpansOfType } from "@/documents/documents.service";
 import { ConflictError, NotFoundError } from "@/errors";
-import { getWritableCorpus } from "./corpora.service";
+import { getCorpus, getWritableCorpus } from "./corpora.service";
 import { lockCorpus } from "./corpora.repository";
 import { deleteEntityTypeRow, findEntityType, insertEntityType, listEntityTypeRows, updateEntityTypeRow } from "./entity-types.repository";
 import { entityTypeSpanStores } from "./span-stores";
@@ -112,10 +112,7 @@ async function countSpans(organizationId: string, typeId: string, db: Db): Promi
 /** How many spans the type has, for the confirmation the web app shows before deleting. */
 export async function getEntityTypeUsage(organizationId: string, corpusId: string, typeId: string): Promise<EntityTypeInUse> {
   if (!isUuid(typeId)) throw new NotFoundError("entity type");
-  await getWritableCorpus(organizationId, corpusId).catch((err) => {
-    if (err instanceof ConflictError) return;
-    throw err;
-  });
+  await getCorpus(organizationId, corpusId);
   if (!(await findEntityType(organizationId, corpusId, typeId))) throw new NotFoundError("entity type");
   return countSpans(organizationId, typeId, defaultDb);
 }

@@ -227,3 +227,116 @@ export async function insertDocuments(docs: NewDocument[], db: Db): Promise<stri
   }
   return inserted;
 }
+
+export type DocumentListFilter = {
+  sort: "created" | "title" | "tokens";
+  dir: "asc" | "desc";
+  split?: "train" | "test" | "none" | undefined;
+  status?: AnnotationStatus | undefined;
+  q?: string | undefined;
+};
+
+const SORT_COLUMNS = { created: "d.created_at", title: "d.title", tokens: "d.token_count" } as const;
+
+/**
+ * One page of a corpus's documents by keyset: rows after (sort value, id) in the chosen order.
+ * `cursorValue` of each row is its sort value exactly as the next page must compare it (created_at
+ * as PostgreSQL text, to the microsecond).
+ */
+export async function listDocuments(
+  organizationId: string,
+  corpusId: string,
+  filter: DocumentListFilter,
+  page: { limit: number; after?: { value: string | number; id: string } | undefined },
+  db: Db = defaultDb,
+): Promise<Array<DocumentRow & { cursorValue: string | number }>> {
+  const column = SORT_COLUMNS[filter.sort];
+  const q = db("documents as d")
+    .leftJoin("upload_files as f", "f.id", "d.upload_file_id")
+    .where({ "d.organization_id": organizationId, "d.corpus_id": corpusId })
+    .select([...documentColumns, "f.filename", db.raw(`${filter.sort === "created" ? "d.created_at::text" : column} AS cursor_value`)]);
+  if (filter.split === "none") q.whereNull("d.split");
+  else if (filter.split) q.where("d.split", filter.split);
+  if (filter.status) q.where("d.annotation_status", filter.status);
+  if (filter.q) q.whereRaw("d.search @@ websearch_to_tsquery('simple', ?)", [filter.q]);
+  if (page.after) {
+    const op = filter.dir === "asc" ? ">" : "<";
+    const cast = filter.sort === "created" ? "::timestamptz" : filter.sort === "tokens" ? "::int" : "::text";
+    q.whereRaw(`(${column}, d.id) ${op} (?${cast}, ?::uuid)`, [page.after.value, page.after.id]);
+  }
+  const rows = await q.orderBy([{ column, order: filter.dir }, { column: "d.id", order: filter.dir }]).limit(page.limit);
+  return rows.map((r: Raw & { cursor_value: string | number }) => ({ ...toDocumentRow(r), cursorValue: r.cursor_value }));
+}
+
+export async function deleteDocumentRow(organizationId: string, documentId: string, db: Db = defaultDb): Promise<boolean> {
+  return (await db("documents").where({ organization_id: organizationId, id: documentId }).delete()) > 0;
+}
+
+/** Ids of a corpus's documents in id order (all of them, or only those in neither split). */
+export async function listDocumentIds(organizationId: string, corpusId: string, onlyUnassigned: boolean, db: Db = defaultDb): Promise<string[]> {
+  const q = db("documents").where({ organization_id: organizationId, corpus_id: corpusId });
+  if (onlyUnassigned) q.whereNull("split");
+  const rows: Array<{ id: string }> = await q.orderBy("id").select("id");
+  return rows.map((r) => r.id);
+}
+
+/** Sets the split of the corpus's documents among the ids; returns how many changed rows matched. */
+export async function updateSplit(
+  organizationId: string,
+  corpusId: string,
+  documentIds: string[],
+  split: DocumentSplit | null,
+  db: Db = defaultDb,
+): Promise<number> {
+  let count = 0;
+  for (let i = 0; i < documentIds.length; i += 5000) {
+    count += await db("documents")
+      .where({ organization_id: organizationId, corpus_id: corpusId })
+      .whereRaw("id = ANY(?::uuid[])", [documentIds.slice(i, i + 5000)])
+      .update({ split, updated_at: db.fn.now() });
+  }
+  return count;
+}
+
+/** A gold document as the export reads it, one at a time from a database cursor. */
+export type GoldDocumentRow = {
+  id: string;
+  title: string;
+  text: string;
+  split: DocumentSplit | null;
+  starts: number[];
+  ends: number[];
+  sentenceStarts: number[];
+  spans: StoredSpan[];
+};
+
+/**
+ * The corpus's gold documents (with tokens and spans) in creation order, as a stream of rows from
+ * a server-side cursor, so that an export of any size holds only a few rows in memory.
+ */
+export function streamGoldDocumentRows(
+  organizationId: string,
+  corpusId: string,
+  split: DocumentSplit | "all",
+  db: Db = defaultDb,
+): NodeJS.ReadableStream & AsyncIterable<Record<string, unknown>> {
+  const q = db("documents as d")
+    .join("document_gold as g", "g.document_id", "d.id")
+    .join("document_tokens as t", "t.document_id", "d.id")
+    .where({ "d.organization_id": organizationId, "d.corpus_id": corpusId, "d.annotation_status": "gold" })
+    .select("d.id", "d.title", "d.text", "d.split", "t.starts", "t.ends", "t.sentence_starts", "g.spans")
+    .orderBy([{ column: "d.created_at" }, { column: "d.id" }]);
+  if (split !== "all") q.where("d.split", split);
+  return q.stream({ highWaterMark: 50 }) as unknown as NodeJS.ReadableStream & AsyncIterable<Record<string, unknown>>;
+}
+
+export const toGoldDocumentRow = (r: Record<string, unknown>): GoldDocumentRow => ({
+  id: r.id as string,
+  title: r.title as string,
+  text: r.text as string,
+  split: r.split as DocumentSplit | null,
+  starts: r.starts as number[],
+  ends: r.ends as number[],
+  sentenceStarts: r.sentence_starts as number[],
+  spans: r.spans as StoredSpan[],
+});

@@ -1,21 +1,47 @@
-import type { AnnotationStatus, DocumentSplit, Span, SuggestedSpan } from "@tagloom/contracts";
-import { listEntityTypes } from "@/corpora/corpora.service";
+import type {
+  AnnotationStatus,
+  DocumentDetail,
+  DocumentTokens,
+  EntityType,
+  SpanMode,
+  DocumentListItem,
+  DocumentListQuery,
+  DocumentSplit,
+  Page,
+  SetSplitInput,
+  SetSplitResult,
+  Span,
+  SuggestedSpan,
+} from "@tagloom/contracts";
+import { createRng, tokenizeText } from "@tagloom/tagger";
+import { type Actor, recordAudit } from "@/audit/audit.service";
+import { getCorpus, getWritableCorpus, listEntityTypes } from "@/corpora/corpora.service";
+import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import { db as defaultDb } from "@/db/knex";
 import { type Db, isUuid } from "@/db/types";
 import { NotFoundError, ValidationError } from "@/errors";
 import {
+  type DocumentRow,
   type StoredSpan,
+  deleteDocumentRow,
   findDocument,
   findDocumentText,
   findDocumentTokens,
   findDocumentsByIds,
   findGoldSpans,
   findSuggestedSpans,
+  insertDocuments,
+  listDocumentIds,
+  listDocuments,
+  streamGoldDocumentRows,
+  toGoldDocumentRow,
   removeSpansOfType,
   summarizeSpansOfType,
   updateAnnotationStatus,
+  updateSplit,
   upsertGoldSpans,
 } from "./documents.repository";
+import { createHash } from "node:crypto";
 import { findSpanProblems } from "./span-checks";
 
 export type DocumentForAnnotation = {
@@ -150,4 +176,212 @@ export async function removeStoredSpansOfType(organizationId: string, typeId: st
   const gold = await removeSpansOfType("document_gold", organizationId, typeId, db);
   const suggestions = await removeSpansOfType("document_suggestions", organizationId, typeId, db);
   return gold + suggestions;
+}
+
+const toListItem = (r: DocumentRow): DocumentListItem => ({
+  id: r.id,
+  corpusId: r.corpusId,
+  title: r.title,
+  split: r.split,
+  annotationStatus: r.annotationStatus,
+  charCount: r.charCount,
+  tokenCount: r.tokenCount,
+  sentenceCount: r.sentenceCount,
+  filename: r.filename,
+  createdAt: r.createdAt,
+});
+
+/** A page of the Documents table: filtered, sorted, searched, by keyset cursor. */
+export async function getDocumentsPage(organizationId: string, corpusId: string, query: DocumentListQuery): Promise<Page<DocumentListItem>> {
+  await getCorpus(organizationId, corpusId);
+  const kind = query.sort === "created" ? "timestamp" : query.sort === "tokens" ? "integer" : "text";
+  const rows = await listDocuments(
+    organizationId,
+    corpusId,
+    { sort: query.sort, dir: query.dir, split: query.split, status: query.status, q: query.q || undefined },
+    { limit: query.limit + 1, after: decodePageCursor(query.cursor, kind) },
+  );
+  const more = rows.length > query.limit;
+  const page = more ? rows.slice(0, query.limit) : rows;
+  const last = page[page.length - 1];
+  return { items: page.map(toListItem), nextCursor: more && last ? encodePageCursor(last.cursorValue, last.id) : null };
+}
+
+async function requireDocumentInCorpus(organizationId: string, corpusId: string, documentId: string): Promise<DocumentRow> {
+  await getCorpus(organizationId, corpusId);
+  const doc = await requireDocument(organizationId, documentId);
+  if (doc.corpusId !== corpusId) throw new NotFoundError("document");
+  return doc;
+}
+
+/** The document page: text, tokens, gold spans and suggestions. */
+export async function getDocumentDetail(organizationId: string, corpusId: string, documentId: string): Promise<DocumentDetail> {
+  const doc = await requireDocumentInCorpus(organizationId, corpusId, documentId);
+  const [full, gold, suggestions] = await Promise.all([
+    getDocumentForAnnotation(organizationId, documentId),
+    getGoldSpans(organizationId, documentId),
+    getSuggestions(organizationId, documentId),
+  ]);
+  return { ...toListItem(doc), text: full.text, tokens: full.tokens, gold, suggestions };
+}
+
+/** Deletes a document for good, with its tokens and spans (audit-logged). */
+export async function deleteDocumentForGood(organizationId: string, corpusId: string, documentId: string, actor: Actor): Promise<void> {
+  await defaultDb.transaction(async (trx) => {
+    const corpus = await getCorpus(organizationId, corpusId, trx);
+    if (!isUuid(documentId)) throw new NotFoundError("document");
+    const doc = await findDocument(organizationId, documentId, trx);
+    if (!doc || doc.corpusId !== corpusId) throw new NotFoundError("document");
+    await deleteDocumentRow(organizationId, documentId, trx);
+    await recordAudit(trx, actor, organizationId, "document.deleted", { type: "document", id: documentId, label: doc.title }, {
+      corpusId,
+      corpus: corpus.name,
+      filename: doc.filename,
+    });
+  });
+}
+
+/** Shuffles ids with a seeded Fisher–Yates shuffle (Knuth, TAOCP vol. 2, 3rd ed., section 3.4.2, Algorithm P). */
+function shuffled(ids: string[], seed: number): string[] {
+  const out = [...ids];
+  const rng = createRng(seed);
+  for (let i = out.length - 1; i > 0; i--) {
+    const j = rng.nextInt(i + 1);
+    [out[i], out[j]] = [out[j]!, out[i]!];
+  }
+  return out;
+}
+
+/**
+ * Sets the split of chosen documents, or splits the corpus at random: with a seed, documents (in
+ * id order) are shuffled and the first round(n × testPercent / 100) go to test, the rest to train,
+ * so the same seed over the same documents always gives the same split.
+ */
+export async function setDocumentSplit(organizationId: string, corpusId: string, input: SetSplitInput, actor: Actor): Promise<SetSplitResult> {
+  return defaultDb.transaction(async (trx) => {
+    const corpus = await getWritableCorpus(organizationId, corpusId, trx);
+    const target = { type: "corpus", id: corpusId, label: corpus.name };
+    if ("documentIds" in input) {
+      const ids = [...new Set(input.documentIds)];
+      const changed = await updateSplit(organizationId, corpusId, ids, input.split, trx);
+      if (changed !== ids.length) {
+        throw new NotFoundError(`document (${ids.length - changed} of the chosen documents are not in this corpus)`);
+      }
+      await recordAudit(trx, actor, organizationId, "documents.split_set", target, { split: input.split, documents: changed });
+      return { train: input.split === "train" ? changed : 0, test: input.split === "test" ? changed : 0, cleared: input.split === null ? changed : 0 };
+    }
+    const scope = input.scope ?? "all";
+    const ids = shuffled(await listDocumentIds(organizationId, corpusId, scope === "unassigned", trx), input.seed);
+    const testCount = Math.round((ids.length * input.testPercent) / 100);
+    const test = ids.slice(0, testCount);
+    const train = ids.slice(testCount);
+    await updateSplit(organizationId, corpusId, test, "test", trx);
+    await updateSplit(organizationId, corpusId, train, "train", trx);
+    await recordAudit(trx, actor, organizationId, "documents.split_random", target, {
+      testPercent: input.testPercent,
+      seed: input.seed,
+      scope,
+      train: train.length,
+      test: test.length,
+    });
+    return { train: train.length, test: test.length, cleared: 0 };
+  });
+}
+
+/** Tokens of a text as stored: offsets from tokenizeText, sentences by their first token. */
+export function tokenizeDocumentText(text: string): DocumentTokens {
+  const { tokens, sentences } = tokenizeText(text);
+  const starts = new Array<number>(tokens.length);
+  const ends = new Array<number>(tokens.length);
+  for (let i = 0; i < tokens.length; i++) {
+    starts[i] = tokens[i]!.start;
+    ends[i] = tokens[i]!.end;
+  }
+  return { starts, ends, sentenceStarts: sentences.map((s) => s.start) };
+}
+
+/** A document read from an uploaded file, tokenized, with spans by type name (already checked). */
+export type DocumentToImport = {
+  uploadFileId: string;
+  sourceIndex: number;
+  title: string;
+  text: string;
+  split: DocumentSplit | null;
+  tokens: DocumentTokens;
+  spans?: Array<{ start: number; end: number; type: string; confidence?: number | undefined }> | undefined;
+};
+
+/**
+ * Stores imported documents inside the caller's transaction. Spans become gold (the document is
+ * then `gold`) or suggestions, as the uploader chose. A document already stored for the same file
+ * and index is skipped, so a retried import adds nothing twice. Returns how many were added.
+ */
+export async function importDocuments(
+  organizationId: string,
+  corpusId: string,
+  docs: DocumentToImport[],
+  options: { spanMode: SpanMode; userId: string | null; types: EntityType[] },
+  db: Db,
+): Promise<number> {
+  const idByName = new Map(options.types.map((t) => [t.name, t.id]));
+  const stored = (spans: NonNullable<DocumentToImport["spans"]>, withConfidence: boolean): StoredSpan[] =>
+    [...spans]
+      .sort((a, b) => a.start - b.start)
+      .map((s) => {
+        const span: StoredSpan = { start: s.start, end: s.end, typeId: idByName.get(s.type)! };
+        if (withConfidence) span.confidence = s.confidence ?? 1;
+        return span;
+      });
+  const inserted = await insertDocuments(
+    docs.map((d) => ({
+      organizationId,
+      corpusId,
+      uploadFileId: d.uploadFileId,
+      sourceIndex: d.sourceIndex,
+      title: d.title,
+      text: d.text,
+      contentHash: createHash("sha256").update(d.text).digest("hex"),
+      split: d.split,
+      annotationStatus: d.spans && options.spanMode === "gold" ? "gold" : "none",
+      tokens: d.tokens,
+      gold: d.spans && options.spanMode === "gold" ? { spans: stored(d.spans, false), userId: options.userId } : undefined,
+      suggestions: d.spans && options.spanMode === "suggested" ? stored(d.spans, true) : undefined,
+    })),
+    db,
+  );
+  return inserted.length;
+}
+
+/** A gold document as exports read it: text, stored tokens and spans by type name. */
+export type GoldDocument = {
+  id: string;
+  title: string;
+  text: string;
+  split: DocumentSplit | null;
+  tokens: DocumentTokens;
+  spans: Span[];
+};
+
+/**
+ * The corpus's gold documents (one split or all) in creation order, read from a database cursor
+ * one batch at a time: memory stays flat however many there are. `types` is the corpus's schema.
+ */
+export async function* streamGoldDocuments(
+  organizationId: string,
+  corpusId: string,
+  split: DocumentSplit | "all",
+  types: EntityType[],
+): AsyncGenerator<GoldDocument> {
+  const names = new Map(types.map((t) => [t.id, t.name]));
+  for await (const raw of streamGoldDocumentRows(organizationId, corpusId, split)) {
+    const r = toGoldDocumentRow(raw);
+    yield {
+      id: r.id,
+      title: r.title,
+      text: r.text,
+      split: r.split,
+      tokens: { starts: r.starts, ends: r.ends, sentenceStarts: r.sentenceStarts },
+      spans: namedSpans(r.spans, names),
+    };
+  }
 }

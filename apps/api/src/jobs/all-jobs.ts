@@ -1,2 +1,3 @@
 // Imports every feature's job module so that its defineJob calls run. Add one line per feature.
 import "@/mail/mail.jobs";
+import "@/uploads/uploads.jobs";

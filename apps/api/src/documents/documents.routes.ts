@@ -1,0 +1,26 @@
+import { documentListQuerySchema, setSplitInputSchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { parseOrThrow } from "@/errors";
+import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
+import { deleteDocumentForGood, getDocumentDetail, getDocumentsPage, setDocumentSplit } from "./documents.service";
+
+export const documentsRouter = Router({ mergeParams: true });
+
+documentsRouter.get("/corpora/:corpusId/documents", anyMember, async (req, res) => {
+  const query = parseOrThrow(documentListQuerySchema, req.query, "query");
+  res.json(await getDocumentsPage(memberOf(req).organizationId, String(req.params.corpusId), query));
+});
+
+documentsRouter.post("/corpora/:corpusId/documents/split", allow("manager"), async (req, res) => {
+  const input = parseOrThrow(setSplitInputSchema, req.body);
+  res.json(await setDocumentSplit(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
+});
+
+documentsRouter.get("/corpora/:corpusId/documents/:documentId", anyMember, async (req, res) => {
+  res.json(await getDocumentDetail(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.documentId)));
+});
+
+documentsRouter.delete("/corpora/:corpusId/documents/:documentId", allow("manager"), async (req, res) => {
+  await deleteDocumentForGood(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.documentId), actorOf(req));
+  res.status(204).end();
+});
