@@ -94,6 +94,16 @@ export async function findAssignment(organizationId: string, id: string, db: Db 
   return r ? toRow(r) : null;
 }
 
+/** The fields of an assignment that never change, or null. */
+export async function findAssignmentFacts(
+  organizationId: string,
+  id: string,
+  db: Db = defaultDb,
+): Promise<{ organizationId: string; corpusId: string; documentId: string; annotatorId: string } | null> {
+  const r = await db("assignments").where({ organization_id: organizationId, id }).first("organization_id", "corpus_id", "document_id", "annotator_id");
+  return r ? { organizationId: r.organization_id, corpusId: r.corpus_id, documentId: r.document_id, annotatorId: r.annotator_id } : null;
+}
+
 /**
  * Replaces the spans only if the row still has `expectedVersion` and is editable, in one
  * statement: of several saves naming the same version exactly one changes the row. An open

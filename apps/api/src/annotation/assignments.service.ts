@@ -27,6 +27,7 @@ import {
 } from "./assignments.repository";
 import { findBatch, findBatchesByIds } from "./batches.repository";
 import { getTokenBounds, primeTokenBounds } from "./document-cache";
+import { getAssignmentFacts, getRecentTypeIndex } from "./save-caches";
 import { type TypeIndex, indexTypes, namedSpans, pendingSuggestions, plainSpans, storedSpans } from "./span-mapping";
 
 /** The signed-in member as the annotation services need it. */
@@ -105,11 +106,20 @@ export async function saveAssignment(
   assignmentId: string,
   input: { version: number; spans: AnnotatedSpan[]; dismissedSuggestions: Span[] },
 ): Promise<SaveAssignmentResult> {
-  const row = await requireVisibleAssignment(member, corpusId, assignmentId);
-  if (row.annotatorId !== member.userId) throw new ForbiddenError("Only the annotator of this assignment can change its spans.");
-  const [types, bounds] = await Promise.all([listEntityTypes(member.organizationId, row.corpusId), getTokenBounds(member.organizationId, row.documentId)]);
-  const index = indexTypes(types);
-  const problem = checkSpans(input.spans, bounds, bounds.textLength, index.names);
+  if (!isUuid(assignmentId) || !isUuid(corpusId)) throw new NotFoundError("assignment");
+  const row = await getAssignmentFacts(member.organizationId, assignmentId);
+  if (!row || row.corpusId !== corpusId) throw new NotFoundError("assignment");
+  if (row.annotatorId !== member.userId) {
+    if (!seesAllAssignments(member.role)) throw new NotFoundError("assignment");
+    throw new ForbiddenError("Only the annotator of this assignment can change its spans.");
+  }
+  let [index, bounds] = await Promise.all([getRecentTypeIndex(member.organizationId, row.corpusId), getTokenBounds(member.organizationId, row.documentId)]);
+  let problem = checkSpans(input.spans, bounds, bounds.textLength, index.names);
+  if (problem) {
+    // The schema may have changed a moment ago: check once more against the current one.
+    index = await getRecentTypeIndex(member.organizationId, row.corpusId, { fresh: true });
+    problem = checkSpans(input.spans, bounds, bounds.textLength, index.names);
+  }
   if (problem) throw spanFieldError(problem, "spans");
   // Dismissed suggestions only need to name a real type inside the text; they may overlap.
   const badDismissed = input.dismissedSuggestions.findIndex((s) => s.end > bounds.textLength || !index.names.has(s.type));
@@ -118,14 +128,14 @@ export async function saveAssignment(
   }
   const saved = await saveAssignmentSpans(
     member.organizationId,
-    row.id,
+    assignmentId,
     member.userId,
     input.version,
     storedSpans(input.spans, index),
     storedSpans(input.dismissedSuggestions, index),
   );
   if (saved) return { version: saved.version, state: saved.state, updatedAt: iso(saved.updatedAt)! };
-  const current = await findAssignment(member.organizationId, row.id);
+  const current = await findAssignment(member.organizationId, assignmentId);
   if (!current) throw new NotFoundError("assignment");
   if (!isEditable(current)) {
     throw new ConflictError("This assignment has been submitted and can no longer be changed.", staleDetails(current, index), "assignment_locked");
