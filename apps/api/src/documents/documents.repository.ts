@@ -311,7 +311,7 @@ export type GoldDocumentRow = {
 };
 
 /**
- * The corpus's gold documents (with tokens and spans) in creation order, as a stream of rows from
+ * The corpus's gold documents (with tokens and spans) in upload order, as a stream of rows from
  * a server-side cursor, so that an export of any size holds only a few rows in memory.
  */
 export function streamGoldDocumentRows(
@@ -325,7 +325,8 @@ export function streamGoldDocumentRows(
     .join("document_tokens as t", "t.document_id", "d.id")
     .where({ "d.organization_id": organizationId, "d.corpus_id": corpusId, "d.annotation_status": "gold" })
     .select("d.id", "d.title", "d.text", "d.split", "t.starts", "t.ends", "t.sentence_starts", "g.spans")
-    .orderBy([{ column: "d.created_at" }, { column: "d.id" }]);
+    // Upload order: documents of one upload share created_at, so their file and place in it follow.
+    .orderBy([{ column: "d.created_at" }, { column: "d.upload_file_id" }, { column: "d.source_index" }, { column: "d.id" }]);
   if (split !== "all") q.where("d.split", split);
   return q.stream({ highWaterMark: 50 }) as unknown as NodeJS.ReadableStream & AsyncIterable<Record<string, unknown>>;
 }

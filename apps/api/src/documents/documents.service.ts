@@ -1,19 +1,20 @@
+import { createHash } from "node:crypto";
 import type {
   AnnotationStatus,
   DocumentDetail,
-  DocumentTokens,
-  EntityType,
-  SpanMode,
   DocumentListItem,
   DocumentListQuery,
   DocumentSplit,
+  DocumentTokens,
+  EntityType,
   Page,
   SetSplitInput,
   SetSplitResult,
   Span,
+  SpanMode,
   SuggestedSpan,
 } from "@tagloom/contracts";
-import { createRng, tokenizeText } from "@tagloom/tagger";
+import { createRng } from "@tagloom/tagger";
 import { type Actor, recordAudit } from "@/audit/audit.service";
 import { getCorpus, getWritableCorpus, listEntityTypes } from "@/corpora/corpora.service";
 import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
@@ -33,16 +34,17 @@ import {
   insertDocuments,
   listDocumentIds,
   listDocuments,
-  streamGoldDocumentRows,
-  toGoldDocumentRow,
   removeSpansOfType,
+  streamGoldDocumentRows,
   summarizeSpansOfType,
+  toGoldDocumentRow,
   updateAnnotationStatus,
   updateSplit,
   upsertGoldSpans,
 } from "./documents.repository";
-import { createHash } from "node:crypto";
 import { findSpanProblems } from "./span-checks";
+
+export { tokenizeDocumentText } from "./tokenize";
 
 export type DocumentForAnnotation = {
   id: string;
@@ -286,18 +288,6 @@ export async function setDocumentSplit(organizationId: string, corpusId: string,
     });
     return { train: train.length, test: test.length, cleared: 0 };
   });
-}
-
-/** Tokens of a text as stored: offsets from tokenizeText, sentences by their first token. */
-export function tokenizeDocumentText(text: string): DocumentTokens {
-  const { tokens, sentences } = tokenizeText(text);
-  const starts = new Array<number>(tokens.length);
-  const ends = new Array<number>(tokens.length);
-  for (let i = 0; i < tokens.length; i++) {
-    starts[i] = tokens[i]!.start;
-    ends[i] = tokens[i]!.end;
-  }
-  return { starts, ends, sentenceStarts: sentences.map((s) => s.start) };
 }
 
 /** A document read from an uploaded file, tokenized, with spans by type name (already checked). */

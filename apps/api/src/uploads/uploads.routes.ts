@@ -1,7 +1,7 @@
 import { fileListQuerySchema, pageQuerySchema } from "@tagloom/contracts";
 import { type RequestHandler, Router } from "express";
 import multer from "multer";
-import { getWritableCorpus } from "@/corpora/corpora.service";
+import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
 import { PayloadTooLargeError, ValidationError, parseOrThrow } from "@/errors";
 import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
 import { getUploadLimits } from "./upload-limits";
@@ -43,7 +43,8 @@ const receiveFiles: RequestHandler = (req, res, next) => {
   });
 };
 
-uploadsRouter.get("/corpora/:corpusId/uploads/limits", anyMember, (_req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads/limits", anyMember, async (req, res) => {
+  await getCorpus(memberOf(req).organizationId, String(req.params.corpusId));
   res.json(getUploadLimits());
 });
 

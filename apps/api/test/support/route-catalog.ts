@@ -95,7 +95,45 @@ export const routeCatalog: CatalogRoute[] = [
     body: () => ({ comment: "Please look again." }),
     probe: () => ({ comment: "" }),
   },
+  // Corpora, entity types, documents, uploads and exports (issue 5).
+  ...corpusRoutes(),
 ];
+
+function corpusRoutes(): CatalogRoute[] {
+  const corpus = (f: TenantFixture) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}`;
+  const type = (f: TenantFixture) => `${corpus(f)}/entity-types/${f.ids.entityTypeId}`;
+  const EXPORTERS: readonly Role[] = ["admin", "manager", "data_lead"];
+  return [
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora`, roles: ALL },
+    { method: "post", path: (f) => `/orgs/${f.orgId}/corpora`, roles: MANAGER, body: () => ({ name: "Intruder corpus" }), probe: () => ({ name: " " }) },
+    { method: "get", path: corpus, roles: ALL },
+    { method: "patch", path: corpus, roles: MANAGER, body: () => ({ name: "Renamed by intruder", archived: true }), probe: () => ({}) },
+    { method: "delete", path: corpus, roles: MANAGER, body: () => ({ confirmName: "Fixture corpus" }), probe: () => ({ confirmName: "not the name" }) },
+    { method: "get", path: (f) => `${corpus(f)}/entity-types`, roles: ALL },
+    { method: "post", path: (f) => `${corpus(f)}/entity-types`, roles: MANAGER, body: () => ({ name: "INTRUDER" }), probe: () => ({ name: "not upper" }) },
+    { method: "patch", path: type, roles: MANAGER, body: () => ({ name: "RENAMED", hotkey: "z" }), probe: () => ({}) },
+    { method: "get", path: (f) => `${type(f)}/usage`, roles: MANAGER },
+    { method: "delete", path: type, roles: MANAGER, body: () => ({ confirm: true }), probe: () => ({ confirm: "yes" }) },
+    { method: "get", path: (f) => `${corpus(f)}/documents?q=harbour&sort=title`, roles: ALL },
+    {
+      method: "post",
+      path: (f) => `${corpus(f)}/documents/split`,
+      roles: MANAGER,
+      body: (f) => ({ documentIds: [f.ids.documentId], split: "test" }),
+      probe: () => ({ testPercent: 500, seed: 1 }),
+    },
+    { method: "get", path: (f) => `${corpus(f)}/documents/${f.ids.documentId}`, roles: ALL },
+    { method: "delete", path: (f) => `${corpus(f)}/documents/${f.ids.documentId}`, roles: MANAGER },
+    { method: "get", path: (f) => `${corpus(f)}/uploads/limits`, roles: ALL },
+    // A JSON body carries no files: allowed roles get 400, and nothing is stored.
+    { method: "post", path: (f) => `${corpus(f)}/uploads`, roles: MANAGER, body: () => ({ spanMode: "gold" }), probe: () => ({}) },
+    { method: "get", path: (f) => `${corpus(f)}/uploads`, roles: ALL },
+    { method: "get", path: (f) => `${corpus(f)}/uploads/${f.ids.uploadId}`, roles: ALL },
+    { method: "get", path: (f) => `${corpus(f)}/files?state=ready`, roles: ALL },
+    { method: "get", path: (f) => `${corpus(f)}/exports?format=jsonl&split=all`, roles: EXPORTERS },
+    { method: "get", path: (f) => `${corpus(f)}/exports?format=conll&split=train`, roles: EXPORTERS },
+  ];
+}
 
 /** For routes whose probe must not act on the fixture's real object. */
 export function withUnknownId(path: string, realId: string): string {
