@@ -2,6 +2,13 @@ import { createBrowserRouter, type RouteObject } from "react-router";
 import { paths } from "@/config/paths";
 import { AreaPlaceholder } from "./routes/area-placeholder";
 import { AuditRoute } from "./routes/audit";
+import { CorporaRoute } from "./routes/corpora";
+import { CorpusDocumentsRoute } from "./routes/corpus-documents";
+import { CorpusLayoutRoute } from "./routes/corpus-layout";
+import { CorpusSchemaRoute } from "./routes/corpus-schema";
+import { CorpusSettingsRoute } from "./routes/corpus-settings";
+import { CorpusUploadsRoute } from "./routes/corpus-uploads";
+import { DocumentRoute } from "./routes/document";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
 import { InvitationRoute } from "./routes/invitation";
 import { MembersRoute } from "./routes/members";
@@ -22,7 +29,18 @@ const orgRoutes: RouteObject[] = [
   { path: "members", element: <MembersRoute /> },
   { path: "audit", element: <AuditRoute /> },
   { path: "settings", element: <OrgSettingsRoute /> },
-  { path: "corpora/*", element: <AreaPlaceholder title="Corpora" what="Corpora, entity schemas and document uploads arrive with the documents work." /> },
+  { path: "corpora", element: <CorporaRoute /> },
+  {
+    path: "corpora/:corpusId",
+    element: <CorpusLayoutRoute />,
+    children: [
+      { index: true, element: <CorpusDocumentsRoute /> },
+      { path: "schema", element: <CorpusSchemaRoute /> },
+      { path: "uploads", element: <CorpusUploadsRoute /> },
+      { path: "settings", element: <CorpusSettingsRoute /> },
+    ],
+  },
+  { path: "corpora/:corpusId/documents/:documentId", element: <DocumentRoute /> },
   { path: "queue", element: <AreaPlaceholder title="My queue" what="Assignments arrive with the annotation work." /> },
   { path: "batches/*", element: <AreaPlaceholder title="Batches" what="Batches arrive with the annotation work." /> },
   { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },

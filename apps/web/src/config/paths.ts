@@ -12,6 +12,14 @@ export const paths = {
   org: {
     root: { path: "/o/:orgId", build: (orgId: string) => `/o/${orgId}` },
     corpora: { path: "/o/:orgId/corpora", build: (orgId: string) => `/o/${orgId}/corpora` },
+    corpus: { path: "/o/:orgId/corpora/:corpusId", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}` },
+    corpusSchema: { path: "/o/:orgId/corpora/:corpusId/schema", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/schema` },
+    corpusUploads: { path: "/o/:orgId/corpora/:corpusId/uploads", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/uploads` },
+    corpusSettings: { path: "/o/:orgId/corpora/:corpusId/settings", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/settings` },
+    document: {
+      path: "/o/:orgId/corpora/:corpusId/documents/:documentId",
+      build: (orgId: string, corpusId: string, documentId: string) => `/o/${orgId}/corpora/${corpusId}/documents/${documentId}`,
+    },
     queue: { path: "/o/:orgId/queue", build: (orgId: string) => `/o/${orgId}/queue` },
     batches: { path: "/o/:orgId/batches", build: (orgId: string) => `/o/${orgId}/batches` },
     taggers: { path: "/o/:orgId/taggers", build: (orgId: string) => `/o/${orgId}/taggers` },

@@ -1,0 +1,71 @@
+import { can } from "@tagloom/contracts";
+import { Link, NavLink, Outlet, useParams } from "react-router";
+import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { paths } from "@/config/paths";
+import { useCorpus } from "@/features/corpora/api/get-corpus";
+import { ExportButtons } from "@/features/exports/components/export-buttons";
+import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { cn } from "@/lib/cn";
+import { formatCount } from "@/lib/format";
+import { NotFoundRoute } from "./not-found";
+
+/** A corpus: its name and counts, export links, and tabs for documents, schema, uploads, settings. */
+export function CorpusLayoutRoute() {
+  const org = useCurrentOrg();
+  const { corpusId = "" } = useParams();
+  const corpus = useCorpus(org.organizationId, corpusId);
+  if (corpus.isPending) return <Spinner />;
+  if (corpus.isError) {
+    if ("status" in corpus.error && corpus.error.status === 404) return <NotFoundRoute />;
+    return <Notice tone="error">{corpus.error.message}</Notice>;
+  }
+  const c = corpus.data;
+  const orgId = org.organizationId;
+  const tabs = [
+    { label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true },
+    { label: "Entity schema", to: paths.org.corpusSchema.build(orgId, corpusId) },
+    { label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) },
+    ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
+  ];
+  return (
+    <div className="max-w-6xl space-y-4">
+      <p className="text-sm">
+        <Link to={paths.org.corpora.build(orgId)} className="text-ink-500 hover:underline">
+          Corpora
+        </Link>
+      </p>
+      <PageHeader
+        title={
+          <span>
+            {c.name}
+            {c.archivedAt ? <span className="ml-3 rounded bg-ink-50 px-2 py-0.5 align-middle text-xs font-medium text-ink-500">archived</span> : null}
+          </span>
+        }
+        subtitle={
+          <span data-testid="corpus-counts">
+            {c.description ? `${c.description} · ` : ""}
+            {formatCount(c.documentCount)} documents ({formatCount(c.splits.train)} train, {formatCount(c.splits.test)} test) · {formatCount(c.statuses.gold)} gold ·{" "}
+            {formatCount(c.entityTypeCount)} entity types
+            {c.pendingFiles > 0 ? ` · ${formatCount(c.pendingFiles)} files processing` : ""}
+          </span>
+        }
+        actions={can(org.role, "exportData") ? <ExportButtons orgId={orgId} corpusId={corpusId} goldCount={c.statuses.gold} /> : null}
+      />
+      <nav aria-label="Corpus" className="flex gap-1 border-b border-ink-100">
+        {tabs.map((t) => (
+          <NavLink
+            key={t.label}
+            to={t.to}
+            end={t.end}
+            className={({ isActive }) =>
+              cn("-mb-px border-b-2 border-transparent px-3 py-2 text-sm text-ink-500 hover:text-ink-800", isActive && "border-thread-500 font-medium text-ink-900")
+            }
+          >
+            {t.label}
+          </NavLink>
+        ))}
+      </nav>
+      <Outlet />
+    </div>
+  );
+}

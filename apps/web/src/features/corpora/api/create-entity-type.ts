@@ -1,0 +1,15 @@
+import type { CreateEntityTypeInput, EntityType } from "@tagloom/contracts";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import { corpusKey } from "./keys";
+
+export const createEntityType = (orgId: string, corpusId: string, input: CreateEntityTypeInput) =>
+  api.post<EntityType>(`/orgs/${orgId}/corpora/${corpusId}/entity-types`, input);
+
+export function useCreateEntityType(orgId: string, corpusId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: CreateEntityTypeInput) => createEntityType(orgId, corpusId, input),
+    onSettled: () => qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId) }),
+  });
+}

@@ -1,0 +1,61 @@
+import type { UploadFile } from "@tagloom/contracts";
+import { Notice, Spinner } from "@/components/ui/card";
+import { formatBytes, formatCount } from "@/lib/format";
+import { useUpload } from "../api/get-upload";
+import { FileProblems } from "./file-problems";
+import { FileStateBadge } from "./file-state-badge";
+
+export type LocalRefusal = { filename: string; sizeBytes: number; reason: string };
+
+/** Per-file results as a list: what was imported and what was refused and why. */
+export function FileResultList({ files, localRefusals = [] }: { files: UploadFile[]; localRefusals?: LocalRefusal[] }) {
+  return (
+    <ul className="divide-y divide-ink-50 rounded-md border border-ink-100 bg-white text-sm" aria-label="File results">
+      {localRefusals.map((f) => (
+        <li key={`local-${f.filename}`} className="flex flex-wrap items-start gap-x-3 gap-y-1 px-3 py-2">
+          <span className="font-medium text-ink-800">{f.filename}</span>
+          <span className="inline-flex rounded bg-rust-500/10 px-1.5 py-0.5 text-xs font-medium text-rust-500">Not sent</span>
+          <span className="w-full text-rust-500">
+            {f.filename} {f.reason}
+          </span>
+        </li>
+      ))}
+      {files.map((f) => (
+        <li key={f.id} className="flex flex-wrap items-start gap-x-3 gap-y-1 px-3 py-2" data-state={f.state}>
+          <span className="font-medium text-ink-800">{f.filename}</span>
+          <FileStateBadge state={f.state} />
+          <span className="text-xs text-ink-500">{formatBytes(f.sizeBytes)}</span>
+          {f.state === "ready" ? (
+            <span className="text-xs text-moss-500">
+              {formatCount(f.documentsCreated)} document{f.documentsCreated === 1 ? "" : "s"} imported
+            </span>
+          ) : null}
+          {f.state === "failed" && f.error ? (
+            <div className="w-full text-rust-500">
+              {f.filename} {f.error}
+              <FileProblems problems={f.problems} />
+            </div>
+          ) : null}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+/** The results of one upload, refreshed until every file is ready or failed. */
+export function UploadResults({ orgId, corpusId, uploadId }: { orgId: string; corpusId: string; uploadId: string }) {
+  const upload = useUpload(orgId, corpusId, uploadId);
+  if (upload.isPending) return <Spinner />;
+  if (upload.isError) return <Notice tone="error">{upload.error.message}</Notice>;
+  const { counts } = upload.data.upload;
+  const pending = counts.queued + counts.processing;
+  return (
+    <div className="space-y-2">
+      <p className="text-sm text-ink-700" aria-live="polite">
+        {pending > 0 ? `${pending} of ${upload.data.files.length} files still processing… ` : "All files processed: "}
+        {counts.ready} ready, {counts.failed} refused.
+      </p>
+      <FileResultList files={upload.data.files} />
+    </div>
+  );
+}
