@@ -43,7 +43,7 @@ export function DocumentRoute() {
       </p>
       <PageHeader
         title={d.title}
-        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} tokens in ${formatCount(d.sentenceCount)} sentences · split ${splitLabels[d.split ?? "none"]} · ${statusLabels[d.annotationStatus]}`}
+        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${statusLabels[d.annotationStatus]}`}
         actions={
           can(org.role, "manageCorpora") ? (
             <Button variant="ghost" className="text-rust-500" onClick={() => setConfirming(true)}>
