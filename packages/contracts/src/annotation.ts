@@ -186,6 +186,7 @@ export const settleDocumentInputSchema = z.object({
 export type SettleDocumentInput = z.infer<typeof settleDocumentInputSchema>;
 
 export type ReviewListItem = {
+  corpusId: string;
   batchId: string;
   batchName: string;
   documentId: string;

@@ -113,7 +113,8 @@ export async function saveAssignment(
     if (!seesAllAssignments(member.role)) throw new NotFoundError("assignment");
     throw new ForbiddenError("Only the annotator of this assignment can change its spans.");
   }
-  let [index, bounds] = await Promise.all([getRecentTypeIndex(member.organizationId, row.corpusId), getTokenBounds(member.organizationId, row.documentId)]);
+  const [firstIndex, bounds] = await Promise.all([getRecentTypeIndex(member.organizationId, row.corpusId), getTokenBounds(member.organizationId, row.documentId)]);
+  let index = firstIndex;
   let problem = checkSpans(input.spans, bounds, bounds.textLength, index.names);
   if (problem) {
     // The schema may have changed a moment ago: check once more against the current one.

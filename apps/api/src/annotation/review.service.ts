@@ -34,7 +34,7 @@ export async function listReview(organizationId: string, filter: { corpusId?: st
   ]);
   const batchName = new Map(batches.map((b) => [b.id, b.name]));
   const title = new Map(docs.map((d) => [d.id, d.title]));
-  const items = new Map<string, ReviewListItem & { corpusId: string }>();
+  const items = new Map<string, ReviewListItem>();
   for (const h of heads) {
     const key = `${h.batchId}/${h.documentId}`;
     const item = items.get(key) ?? {
@@ -208,7 +208,15 @@ export async function getBatchAgreement(organizationId: string, corpusId: string
   const who = (userId: string) => ({ userId, name: names.get(userId) ?? "Former member" });
   return {
     batchId: batch.id,
-    pairs: figures.pairs.map((p) => ({ ...p, annotatorA: who(p.annotatorA), annotatorB: who(p.annotatorB) })),
+    // Each pair reads in name order ("Ines & Jory"), its one-sided counts swapped to match.
+    pairs: figures.pairs
+      .map((p) => {
+        const [a, b] = [who(p.annotatorA), who(p.annotatorB)];
+        return a.name.localeCompare(b.name) <= 0
+          ? { ...p, annotatorA: a, annotatorB: b }
+          : { ...p, annotatorA: b, annotatorB: a, onlyA: p.onlyB, onlyB: p.onlyA };
+      })
+      .sort((x, y) => x.annotatorA.name.localeCompare(y.annotatorA.name) || x.annotatorB.name.localeCompare(y.annotatorB.name)),
     overall: figures.overall,
   };
 }

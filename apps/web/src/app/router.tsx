@@ -1,6 +1,10 @@
 import { createBrowserRouter, type RouteObject } from "react-router";
 import { paths } from "@/config/paths";
 import { AreaPlaceholder } from "./routes/area-placeholder";
+import { AssignmentRoute } from "./routes/assignment";
+import { BatchDetailRoute } from "./routes/batch-detail";
+import { BatchNewRoute } from "./routes/batch-new";
+import { BatchesRoute } from "./routes/batches";
 import { AuditRoute } from "./routes/audit";
 import { CorporaRoute } from "./routes/corpora";
 import { CorpusDocumentsRoute } from "./routes/corpus-documents";
@@ -18,7 +22,10 @@ import { OrgHomeRoute } from "./routes/org-home";
 import { OrgLayoutRoute, RootRedirectRoute } from "./routes/org-layout";
 import { OrgSettingsRoute } from "./routes/org-settings";
 import { OutboxRoute } from "./routes/outbox";
+import { QueueRoute } from "./routes/queue";
 import { ResetPasswordRoute } from "./routes/reset-password";
+import { ReviewRoute } from "./routes/review";
+import { ReviewDocumentRoute } from "./routes/review-document";
 import { SignInRoute } from "./routes/sign-in";
 import { SignUpRoute } from "./routes/sign-up";
 import { VerifyEmailRoute } from "./routes/verify-email";
@@ -41,8 +48,13 @@ const orgRoutes: RouteObject[] = [
     ],
   },
   { path: "corpora/:corpusId/documents/:documentId", element: <DocumentRoute /> },
-  { path: "queue", element: <AreaPlaceholder title="My queue" what="Assignments arrive with the annotation work." /> },
-  { path: "batches/*", element: <AreaPlaceholder title="Batches" what="Batches arrive with the annotation work." /> },
+  { path: "queue", element: <QueueRoute /> },
+  { path: "batches", element: <BatchesRoute /> },
+  { path: "batches/new", element: <BatchNewRoute /> },
+  { path: "review", element: <ReviewRoute /> },
+  { path: "corpora/:corpusId/assignments/:assignmentId", element: <AssignmentRoute /> },
+  { path: "corpora/:corpusId/batches/:batchId", element: <BatchDetailRoute /> },
+  { path: "corpora/:corpusId/batches/:batchId/review/:documentId", element: <ReviewDocumentRoute /> },
   { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },
   { path: "billing", element: <AreaPlaceholder title="Billing" what="Seats and billing arrive with the billing work." /> },
 ];

@@ -27,5 +27,29 @@ export const paths = {
     audit: { path: "/o/:orgId/audit", build: (orgId: string) => `/o/${orgId}/audit` },
     billing: { path: "/o/:orgId/billing", build: (orgId: string) => `/o/${orgId}/billing` },
     settings: { path: "/o/:orgId/settings", build: (orgId: string) => `/o/${orgId}/settings` },
+    newBatch: {
+      path: "/o/:orgId/batches/new",
+      build: (orgId: string, opts: { corpusId?: string; documentIds?: string[] } = {}) => {
+        const q = new URLSearchParams();
+        if (opts.corpusId) q.set("corpus", opts.corpusId);
+        if (opts.documentIds?.length) q.set("documents", opts.documentIds.join(","));
+        const s = q.toString();
+        return `/o/${orgId}/batches/new${s ? `?${s}` : ""}`;
+      },
+    },
+    batch: {
+      path: "/o/:orgId/corpora/:corpusId/batches/:batchId",
+      build: (orgId: string, corpusId: string, batchId: string) => `/o/${orgId}/corpora/${corpusId}/batches/${batchId}`,
+    },
+    assignment: {
+      path: "/o/:orgId/corpora/:corpusId/assignments/:assignmentId",
+      build: (orgId: string, corpusId: string, assignmentId: string) => `/o/${orgId}/corpora/${corpusId}/assignments/${assignmentId}`,
+    },
+    review: { path: "/o/:orgId/review", build: (orgId: string) => `/o/${orgId}/review` },
+    reviewDocument: {
+      path: "/o/:orgId/corpora/:corpusId/batches/:batchId/review/:documentId",
+      build: (orgId: string, corpusId: string, batchId: string, documentId: string) =>
+        `/o/${orgId}/corpora/${corpusId}/batches/${batchId}/review/${documentId}`,
+    },
   },
 } as const;

@@ -12,6 +12,7 @@ export const navSections: { title: string; items: NavItem[] }[] = [
       { label: "My queue", to: paths.org.queue.build, ability: "annotate" },
       { label: "Corpora", to: paths.org.corpora.build },
       { label: "Batches", to: paths.org.batches.build, ability: "manageBatches" },
+      { label: "Review", to: paths.org.review.build, ability: "review" },
       { label: "Taggers", to: paths.org.taggers.build, ability: "train" },
     ],
   },

@@ -1,0 +1,38 @@
+import { Link, useNavigate, useParams } from "react-router";
+import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { useToast } from "@/components/ui/toaster";
+import { paths } from "@/config/paths";
+import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { useReviewDocument } from "@/features/review/api/get-review-document";
+import { ReviewPanel } from "@/features/review/components/review-panel";
+
+/** Review of one document of a batch. */
+export function ReviewDocumentRoute() {
+  const org = useCurrentOrg();
+  const id = org.organizationId;
+  const { corpusId = "", batchId = "", documentId = "" } = useParams();
+  const review = useReviewDocument(id, corpusId, batchId, documentId);
+  const navigate = useNavigate();
+  const toast = useToast();
+  if (review.isPending) return <Spinner />;
+  if (review.isError) return <Notice tone="error">{review.error.message}</Notice>;
+  const v = review.data;
+  return (
+    <div className="max-w-5xl space-y-4">
+      <Link to={paths.org.batch.build(id, corpusId, batchId)} className="text-xs text-ink-500 hover:underline">
+        ← Batch {v.batch.name}
+      </Link>
+      <PageHeader title={`Review: ${v.document.title}`} subtitle={v.gold ? `This document already has gold (${v.gold.length} spans); accepting replaces it.` : undefined} />
+      <ReviewPanel
+        key={v.assignments.map((a) => `${a.id}:${a.state}`).join(",")}
+        orgId={id}
+        view={v}
+        openLink={(assignmentId) => paths.org.assignment.build(id, corpusId, assignmentId)}
+        onDone={(what) => {
+          toast.show(what, "success");
+          navigate(paths.org.batch.build(id, corpusId, batchId));
+        }}
+      />
+    </div>
+  );
+}

@@ -1,0 +1,29 @@
+import type { BatchSummary } from "@tagloom/contracts";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { Link } from "react-router";
+import { DataTable } from "@/components/ui/data-table";
+import { ProgressBar } from "./progress-bar";
+
+const col = createColumnHelper<BatchSummary>();
+
+/** Batches with their corpus, due date and progress; each links to its page. */
+export function BatchesTable({ batches, corpusName, linkTo }: { batches: BatchSummary[]; corpusName: (id: string) => string; linkTo: (b: BatchSummary) => string }) {
+  const columns = [
+    col.accessor("name", {
+      header: "Batch",
+      cell: (c) => (
+        <Link to={linkTo(c.row.original)} className="font-medium text-ink-800 hover:underline">
+          {c.getValue()}
+        </Link>
+      ),
+    }),
+    col.accessor("corpusId", { header: "Corpus", cell: (c) => corpusName(c.getValue()) }),
+    col.accessor("dueDate", { header: "Due", cell: (c) => c.getValue() ?? "—" }),
+    col.accessor("documentCount", { header: "Documents", cell: (c) => `${c.row.original.documentsSettled} of ${c.getValue()} settled` }),
+    col.accessor("annotatorsPerDocument", { header: "Per document" }),
+    col.display({ id: "progress", header: "Assignments", cell: (c) => <ProgressBar counts={c.row.original.assignments} label={c.row.original.name} /> }),
+    col.accessor("createdBy", { header: "Made by", cell: (c) => c.getValue() ?? "—" }),
+  ];
+  const table = useReactTable({ data: batches, columns, getCoreRowModel: getCoreRowModel(), getRowId: (b) => b.id });
+  return <DataTable table={table} flexRender={flexRender} caption="Batches" />;
+}

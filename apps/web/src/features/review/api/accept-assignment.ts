@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+
+/** Accepts the only annotator's submitted work on a document: it becomes the gold. */
+export const acceptAssignment = (orgId: string, corpusId: string, assignmentId: string) =>
+  api.post<void>(`/orgs/${orgId}/corpora/${corpusId}/assignments/${assignmentId}/accept`);
+
+export function useAcceptAssignment(orgId: string, corpusId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (assignmentId: string) => acceptAssignment(orgId, corpusId, assignmentId),
+    onSettled: () => {
+      void qc.invalidateQueries({ queryKey: ["orgs", orgId, "review"] });
+      void qc.invalidateQueries({ queryKey: ["orgs", orgId, "batches"] });
+    },
+  });
+}
