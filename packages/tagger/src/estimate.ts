@@ -1,3 +1,4 @@
+import { buildContextEmissionTable, type ContextEmissionTable } from "./context-emissions";
 import { estimateAddLambda, shrinkTowardParent } from "./smoothing";
 import type { SufficientStatistics } from "./sufficient-statistics";
 
@@ -39,6 +40,7 @@ export type ModelParameters = {
   readonly emissions: Float64Array;
   readonly prevWord: PrevWordTable | null;
   readonly trigram: TrigramTable | null;
+  readonly contextEmission: ContextEmissionTable | null;
 };
 
 /** Options of {@link estimateParameters}. */
@@ -140,6 +142,7 @@ export function estimateParameters(stats: SufficientStatistics, options: Estimat
     emissions,
     prevWord: stats.prevWord === null ? null : buildPrevWordTable(stats.prevWord, K),
     trigram: stats.trigrams === null ? null : buildTrigramTable(stats.trigrams, K, endState),
+    contextEmission: stats.contextEmissions === null ? null : buildContextEmissionTable(stats.contextEmissions, S),
   };
 }
 

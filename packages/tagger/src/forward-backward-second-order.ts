@@ -1,11 +1,12 @@
+import { computeForwardSecondOrder } from "./forward-second-order";
 import { logSumExp } from "./math";
 import { checkSecondOrderLattice, type SecondOrderLattice } from "./second-order-lattice";
 
 /**
  * Forward-backward for a second-order HMM over a candidate lattice (pair states, log space; the
- * recursions of Rabiner 1989 §III-A on the pair chain). Returns per-token posterior marginals as a
- * dense T×K table of probabilities (0 for states that were not candidates) and log P(O) — over
- * the lattice, so with pruned candidates it is the likelihood of the pruned model.
+ * recursions of Rabiner 1989 §III on the pair chain). Returns per-token posterior marginals as a
+ * dense T×K table of probabilities (0 for states that were not candidates) and log P(O) over the
+ * lattice. Throws RangeError when the observations have probability 0.
  */
 export function computePosteriorsSecondOrder(lattice: SecondOrderLattice): { posteriors: Float64Array; logLikelihood: number } {
   checkSecondOrderLattice(lattice, "computePosteriorsSecondOrder");
@@ -13,53 +14,22 @@ export function computePosteriorsSecondOrder(lattice: SecondOrderLattice): { pos
   const K = lattice.states;
   const posteriors = new Float64Array(T * K);
   if (T === 0) return { posteriors, logLikelihood: 0 };
-  const { offsets, candidates, emissions, start, second, blockOffsets, blocks, end } = lattice;
+  const { offsets, candidates, emissions, start, blockOffsets, blocks, end } = lattice;
+  const { alpha, pairOffsets, logLikelihood } = computeForwardSecondOrder(lattice);
+  if (logLikelihood === -Infinity) throw new RangeError("computePosteriorsSecondOrder: the observations have probability 0 under the model");
   const size = (t: number) => offsets[t + 1] - offsets[t];
   const n0 = size(0);
-  let widest = 0;
-  for (let t = 0; t < T; t++) widest = Math.max(widest, size(t));
-  const terms = new Float64Array(Math.max(widest * widest, 1));
-
   if (T === 1) {
-    for (let a = 0; a < n0; a++) terms[a] = start[a] + emissions[a] + (end === null ? 0 : end[a]);
-    const logLikelihood = logSumExp(terms, 0, n0);
-    if (logLikelihood === -Infinity) throw new RangeError("computePosteriorsSecondOrder: the observations have probability 0 under the model");
-    for (let a = 0; a < n0; a++) posteriors[candidates[a]] += Math.exp(terms[a] - logLikelihood);
+    for (let a = 0; a < n0; a++) posteriors[candidates[a]] += Math.exp(start[a] + emissions[a] + (end === null ? 0 : end[a]) - logLikelihood);
     return { posteriors, logLikelihood };
   }
-
-  const pairOffsets = new Int32Array(T + 1);
-  for (let t = 1; t < T; t++) pairOffsets[t + 1] = pairOffsets[t] + size(t - 1) * size(t);
-  const alpha = new Float64Array(pairOffsets[T]);
-  const beta = new Float64Array(pairOffsets[T]);
+  let widest = 0;
+  for (let t = 0; t < T; t++) widest = Math.max(widest, size(t));
+  const terms = new Float64Array(widest);
   const n1 = size(1);
-  for (let a = 0; a < n0; a++) {
-    const head = start[a] + emissions[a];
-    for (let b = 0; b < n1; b++) alpha[a * n1 + b] = head + second[a * n1 + b] + emissions[offsets[1] + b];
-  }
-  for (let t = 2; t < T; t++) {
-    const nA = size(t - 2);
-    const nB = size(t - 1);
-    const nC = size(t);
-    const prev = pairOffsets[t - 1];
-    const cur = pairOffsets[t];
-    const block = blockOffsets[t];
-    for (let b = 0; b < nB; b++) {
-      for (let c = 0; c < nC; c++) {
-        for (let a = 0; a < nA; a++) terms[a] = alpha[prev + a * nB + b] + blocks[block + (a * nB + b) * nC + c];
-        alpha[cur + b * nC + c] = logSumExp(terms, 0, nA) + emissions[offsets[t] + c];
-      }
-    }
-  }
-  const nLastA = size(T - 2);
-  const nLastB = size(T - 1);
+  const beta = new Float64Array(pairOffsets[T]);
   const last = pairOffsets[T - 1];
-  for (let x = 0; x < nLastA * nLastB; x++) {
-    beta[last + x] = end === null ? 0 : end[x];
-    terms[x] = alpha[last + x] + beta[last + x];
-  }
-  const logLikelihood = logSumExp(terms, 0, nLastA * nLastB);
-  if (logLikelihood === -Infinity) throw new RangeError("computePosteriorsSecondOrder: the observations have probability 0 under the model");
+  for (let x = 0; x < size(T - 2) * size(T - 1); x++) beta[last + x] = end === null ? 0 : end[x];
   for (let t = T - 1; t >= 2; t--) {
     const nA = size(t - 2);
     const nB = size(t - 1);

@@ -26,6 +26,8 @@ export type SufficientStatistics = {
    * BOS BOS s_0 … s_{T-1} [EOS], boundary index K; null when the model is first-order.
    */
   readonly trigrams: Map<number, number> | null;
+  /** ((context·K + state)·S + symbol) → count for context-conditioned emissions (context-emissions.ts); null when off. */
+  readonly contextEmissions: Map<number, number> | null;
   /** Tokens and sentences counted (weighted). */
   tokens: number;
   sentences: number;
@@ -39,6 +41,7 @@ export function createSufficientStatistics(shape: {
   sentenceBuckets: number;
   prevWord: boolean;
   trigrams: boolean;
+  contextEmissions: boolean;
 }): SufficientStatistics {
   const { states: K, symbols: S, buckets: B, sentenceBuckets: SB } = shape;
   for (const [name, v] of Object.entries({ states: K, symbols: S, buckets: B, sentenceBuckets: SB })) {
@@ -55,6 +58,7 @@ export function createSufficientStatistics(shape: {
     emissions: new Float64Array(S * K),
     prevWord: shape.prevWord ? new Map() : null,
     trigrams: shape.trigrams ? new Map() : null,
+    contextEmissions: shape.contextEmissions ? new Map() : null,
     tokens: 0,
     sentences: 0,
   };
@@ -67,8 +71,8 @@ export function addStatistics(a: SufficientStatistics, b: SufficientStatistics, 
       `addStatistics: shapes differ (K ${a.states}/${b.states}, S ${a.symbols}/${b.symbols}, B ${a.buckets}/${b.buckets}, SB ${a.sentenceBuckets}/${b.sentenceBuckets})`,
     );
   }
-  if ((a.prevWord === null) !== (b.prevWord === null) || (a.trigrams === null) !== (b.trigrams === null)) {
-    throw new RangeError("addStatistics: one side has previous-word or trigram counts and the other does not");
+  if ((a.prevWord === null) !== (b.prevWord === null) || (a.trigrams === null) !== (b.trigrams === null) || (a.contextEmissions === null) !== (b.contextEmissions === null)) {
+    throw new RangeError("addStatistics: one side has previous-word, trigram or context-emission counts and the other does not");
   }
   const dense = (x: Float64Array, y: Float64Array) => {
     const out = x.slice();
@@ -92,6 +96,7 @@ export function addStatistics(a: SufficientStatistics, b: SufficientStatistics, 
     emissions: dense(a.emissions, b.emissions),
     prevWord: sparse(a.prevWord, b.prevWord),
     trigrams: sparse(a.trigrams, b.trigrams),
+    contextEmissions: sparse(a.contextEmissions, b.contextEmissions),
     tokens: a.tokens + weight * b.tokens,
     sentences: a.sentences + weight * b.sentences,
   };
@@ -105,7 +110,7 @@ export function statisticsSize(stats: SufficientStatistics, representation: "den
     denseCells += arr.length;
     for (let i = 0; i < arr.length; i++) if (arr[i] !== 0) cells++;
   }
-  const sparseEntries = (stats.prevWord?.size ?? 0) + (stats.trigrams?.size ?? 0);
+  const sparseEntries = (stats.prevWord?.size ?? 0) + (stats.trigrams?.size ?? 0) + (stats.contextEmissions?.size ?? 0);
   cells += sparseEntries;
   const bytes = representation === "dense" ? 8 * denseCells + 16 * sparseEntries : 16 * cells;
   return { cells, bytes };

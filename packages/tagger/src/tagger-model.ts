@@ -1,6 +1,8 @@
 import type { TagScheme } from "./conll";
+import { segmentStartTable } from "./context-emissions";
 import { estimateParameters, type ModelParameters } from "./estimate";
 import { iobConstraints, type IobConstraints } from "./iob-constraints";
+import { buildNltkTables, type NltkTables } from "./nltk-compatible";
 import type { SuffixStatistics } from "./suffix-model";
 import type { SufficientStatistics } from "./sufficient-statistics";
 import type { TrainingConfig } from "./training-config";
@@ -34,6 +36,10 @@ export type TaggerModel = {
   readonly suffix: SuffixStatistics | null;
   readonly constraints: IobConstraints | null;
   readonly summary: DataSummary;
+  /** NLTK's float32 decoding tables, only for the NLTK-compatible configuration. */
+  readonly nltk: NltkTables | null;
+  /** K×K segment starts for context-conditioned emissions (context-emissions.ts), else null. */
+  readonly segmentStarts: Uint8Array | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -82,5 +88,7 @@ export function assembleModel(parts: {
     // NLTK's Lidstone emission uses the training word types as bins; the unknown-word symbol is extra.
     emissionBins: config.nltkCompatible ? vocabulary.words.length : symbolCount(vocabulary),
   });
-  return { ...parts, parameters, constraints };
+  const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
+  const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
+  return { ...parts, parameters, constraints, nltk, segmentStarts };
 }

@@ -1,3 +1,4 @@
+import { emissionContext } from "./context-emissions";
 import { fillTransitionBuckets, sentenceBucketOf, type PositionBuckets } from "./position-buckets";
 import { createSufficientStatistics, type SufficientStatistics } from "./sufficient-statistics";
 
@@ -19,6 +20,8 @@ export type CountingShape = {
   readonly positionBuckets: PositionBuckets;
   readonly prevWord: boolean;
   readonly trigrams: boolean;
+  /** K×K segment-start table (context-emissions.ts) when context-conditioned emissions are on. */
+  readonly segmentStarts: Uint8Array | null;
 };
 
 /** Throws RangeError unless the corpus arrays agree with each other and with the shape. */
@@ -50,8 +53,18 @@ export function countSupervised(corpus: EncodedCorpus, shape: CountingShape): Su
   checkEncodedCorpus(corpus, { states: K, symbols: S });
   const sentenceBuckets = positionBuckets.sentence.length + 1;
   const buckets = (positionBuckets.token.length + 1) * sentenceBuckets;
-  const stats = createSufficientStatistics({ states: K, symbols: S, buckets, sentenceBuckets, prevWord: shape.prevWord, trigrams: shape.trigrams });
-  const { start, transitions, end, emissions, prevWord, trigrams } = stats;
+  const segmentStarts = shape.segmentStarts;
+  if (segmentStarts !== null && segmentStarts.length !== K * K) throw new RangeError(`countSupervised: segmentStarts has length ${segmentStarts.length}, expected K×K=${K * K}`);
+  const stats = createSufficientStatistics({
+    states: K,
+    symbols: S,
+    buckets,
+    sentenceBuckets,
+    prevWord: shape.prevWord,
+    trigrams: shape.trigrams,
+    contextEmissions: segmentStarts !== null,
+  });
+  const { start, transitions, end, emissions, prevWord, trigrams, contextEmissions } = stats;
   const { symbols, tags, sentenceStarts, sentenceIndex } = corpus;
   const KK = K * K;
   const K1 = K + 1;
@@ -84,6 +97,14 @@ export function countSupervised(corpus: EncodedCorpus, shape: CountingShape): Su
       for (let n = from + 1; n < to; n++) {
         const key = (symbols[n - 1] * K + tags[n - 1]) * K + tags[n];
         prevWord.set(key, (prevWord.get(key) ?? 0) + 1);
+      }
+    }
+    if (contextEmissions !== null && segmentStarts !== null) {
+      for (let n = from; n < to; n++) {
+        const j = tags[n];
+        const context = n === from ? K : emissionContext(segmentStarts, K, tags[n - 1], j, symbols[n - 1]);
+        const key = (context * K + j) * S + symbols[n];
+        contextEmissions.set(key, (contextEmissions.get(key) ?? 0) + 1);
       }
     }
     if (trigrams !== null) {

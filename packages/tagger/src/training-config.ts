@@ -36,6 +36,18 @@ export type TrainingConfig = {
   readonly suffixLength: number;
   /** Words seen at most this often feed the suffix statistics (Brants 2000 §2.3). */
   readonly suffixMaxFrequency: number;
+  /**
+   * Successive-abstraction weight θ of the suffix statistics; null = Brants's formula (the
+   * variance of the tag probabilities), which suits large POS tag sets but trusts sparse suffix
+   * counts too much for a handful of entity tags.
+   */
+  readonly suffixTheta: number | null;
+  /**
+   * Emissions conditioned on context as in Bikel et al. (1997) §3.1: the first word of a segment
+   * (B-X, or O after an entity) given the previous state, a word inside a segment given the
+   * previous word; Witten–Bell back-off to P(word | state).
+   */
+  readonly contextEmissions: boolean;
   /** 1: first-order HMM; 2: second-order (trigram) transitions with deleted interpolation. */
   readonly order: 1 | 2;
   /** Transitions also conditioned on the previous word (Bikel et al. 1997), Witten–Bell back-off. */
@@ -68,6 +80,8 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   wordClasses: "extended",
   suffixLength: 4,
   suffixMaxFrequency: 10,
+  suffixTheta: 3,
+  contextEmissions: false,
   order: 1,
   prevWord: true,
   beam: 1000,
@@ -107,6 +121,9 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (!Number.isInteger(config.suffixLength) || config.suffixLength < 0) throw new RangeError(`suffixLength must be an integer ≥ 0, got ${config.suffixLength}`);
   if (!Number.isInteger(config.suffixMaxFrequency) || config.suffixMaxFrequency < 1) {
     throw new RangeError(`suffixMaxFrequency must be an integer ≥ 1, got ${config.suffixMaxFrequency}`);
+  }
+  if (config.suffixTheta !== null && !(Number.isFinite(config.suffixTheta) && config.suffixTheta >= 0)) {
+    throw new RangeError(`suffixTheta must be null or a finite number ≥ 0, got ${config.suffixTheta}`);
   }
   if (config.order !== 1 && config.order !== 2) throw new RangeError(`order must be 1 or 2, got ${config.order}`);
   if (!(config.beam >= 1)) throw new RangeError(`beam must be ≥ 1, got ${config.beam}`);

@@ -1,0 +1,66 @@
+/**
+ * Emissions conditioned on context, after Bikel et al. (1997), "Nymble: a high-performance
+ * learning name-finder", ANLP, §3.1: the first word of a name class is generated given the
+ * current and the previous class, every later word of the class given the previous word. In IOB2
+ * terms a segment starts at B-X, and at O after a non-O state (plain tags: at any change of
+ * state). The table keeps (context, state, symbol) counts; a context is a previous state
+ * (0..K−1), the sentence start (K), or a previous symbol s (K+1+s). Probabilities back off to the
+ * context-free emission P(w | state) with Witten–Bell weights (Witten & Bell 1991), so a model
+ * can fold the ratio P(w | state, context)/P(w | state) into its per-step transition scores.
+ */
+export type ContextEmissionTable = {
+  /** ((context·K + state)·S + symbol) → count. */
+  readonly counts: ReadonlyMap<number, number>;
+  /** (context·K + state) → total count n and number of distinct symbols u. */
+  readonly totals: ReadonlyMap<number, number>;
+  readonly distinct: ReadonlyMap<number, number>;
+};
+
+/** K×K: 1 where moving from state i to state j starts a new segment. */
+export function segmentStartTable(tags: readonly string[], scheme: "iob" | "plain"): Uint8Array {
+  const K = tags.length;
+  const table = new Uint8Array(K * K);
+  const type = (tag: string) => (tag === "O" ? "O" : tag.slice(2));
+  for (let i = 0; i < K; i++) {
+    for (let j = 0; j < K; j++) {
+      table[i * K + j] = scheme === "iob" ? (tags[j].startsWith("B-") || type(tags[i]) !== type(tags[j]) ? 1 : 0) : i !== j ? 1 : 0;
+    }
+  }
+  return table;
+}
+
+/** Context of emitting state j at token t after state i (t ≥ 1) with previous symbol `previous`. */
+export function emissionContext(segmentStarts: Uint8Array, K: number, i: number, j: number, previous: number): number {
+  return segmentStarts[i * K + j] === 1 ? i : K + 1 + previous;
+}
+
+/** Builds the totals of a count map (S symbols, K states). */
+export function buildContextEmissionTable(counts: ReadonlyMap<number, number>, S: number): ContextEmissionTable {
+  const kept = new Map<number, number>();
+  const totals = new Map<number, number>();
+  const distinct = new Map<number, number>();
+  for (const key of [...counts.keys()].sort((a, b) => a - b)) {
+    const v = counts.get(key)!;
+    if (!(v > 0)) continue;
+    kept.set(key, v);
+    const row = Math.floor(key / S);
+    totals.set(row, (totals.get(row) ?? 0) + v);
+    distinct.set(row, (distinct.get(row) ?? 0) + 1);
+  }
+  return { counts: kept, totals, distinct };
+}
+
+/**
+ * log(P(symbol | state, context)/P(symbol | state)) with Witten–Bell back-off:
+ * P = (c + u·P(symbol | state))/(n + u), so the ratio is (c/P(symbol | state) + u)/(n + u);
+ * 0 when the context was never seen with this state.
+ */
+export function contextEmissionLogRatio(table: ContextEmissionTable, S: number, K: number, context: number, state: number, symbol: number, baseLog: number): number {
+  const row = context * K + state;
+  const n = table.totals.get(row);
+  if (n === undefined) return 0;
+  const u = table.distinct.get(row)!;
+  const c = table.counts.get(row * S + symbol) ?? 0;
+  const ratio = (c / Math.exp(baseLog) + u) / (n + u);
+  return Math.log(ratio);
+}
