@@ -34,6 +34,18 @@ export function CorpusDocumentsRoute() {
         refetchMs={pending > 0 ? 1500 : false}
         linkTo={(documentId) => paths.org.document.build(org.organizationId, corpusId, documentId)}
         onRandomSplit={canManage ? () => setSplitOpen(true) : undefined}
+        selectionActions={
+          can(org.role, "manageBatches")
+            ? (documentIds) => (
+                <Link
+                  className="inline-flex h-8 items-center rounded-md bg-ink-700 px-3 text-sm font-medium text-white hover:bg-ink-800"
+                  to={paths.org.newBatch.build(org.organizationId, { corpusId, documentIds })}
+                >
+                  Make a batch…
+                </Link>
+              )
+            : undefined
+        }
       />
       {corpus.data ? (
         <RandomSplitDialog

@@ -102,6 +102,22 @@ describe("DocumentsTable", () => {
     expect(screen.queryByText("2 selected:")).not.toBeInTheDocument();
   });
 
+  it("hands the selected ids to actions the screen composes in (such as making a batch)", async () => {
+    fakeDocuments();
+    renderWithProviders(
+      <DocumentsTable
+        orgId={ORG}
+        corpusId={CORPUS}
+        canManage
+        refetchMs={false}
+        linkTo={(id) => `/doc/${id}`}
+        selectionActions={(ids) => <a href={`/batch?documents=${ids.join(",")}`}>Batch of {ids.length}</a>}
+      />,
+    );
+    await userEvent.click(await screen.findByRole("checkbox", { name: "Select all on this page" }));
+    expect(screen.getByRole("link", { name: "Batch of 2" })).toHaveAttribute("href", `/batch?documents=${doc(1).id},${doc(2).id}`);
+  });
+
   it("offers no selection to members who cannot set splits", async () => {
     fakeDocuments();
     render(false);

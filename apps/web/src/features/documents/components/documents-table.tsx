@@ -1,6 +1,6 @@
 import type { AnnotationStatus, DocumentListItem, DocumentSort } from "@tagloom/contracts";
 import { createColumnHelper, flexRender, getCoreRowModel, type RowSelectionState, useReactTable } from "@tanstack/react-table";
-import { useEffect, useState } from "react";
+import { type ReactNode, useEffect, useState } from "react";
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
@@ -49,6 +49,7 @@ export function DocumentsTable({
   refetchMs,
   linkTo,
   onRandomSplit,
+  selectionActions,
 }: {
   orgId: string;
   corpusId: string;
@@ -56,6 +57,8 @@ export function DocumentsTable({
   refetchMs: number | false;
   linkTo: (documentId: string) => string;
   onRandomSplit?: () => void;
+  /** More actions on the selected documents, composed in by the screen (e.g. making a batch). */
+  selectionActions?: (documentIds: string[]) => ReactNode;
 }) {
   const [sort, setSort] = useState<DocumentSort>("created");
   const [dir, setDir] = useState<"asc" | "desc">("desc");
@@ -192,6 +195,7 @@ export function DocumentsTable({
               <Button size="sm" variant="ghost" busy={setSplitMutation.isPending} onClick={() => void applySplit(null)}>
                 Clear split
               </Button>
+              {selectionActions?.(selectedIds)}
             </>
           ) : (
             <span className="text-ink-500">Select documents to set their split, or</span>
