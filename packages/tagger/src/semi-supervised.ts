@@ -1,3 +1,4 @@
+import { emissionContext } from "./context-emissions";
 import { buildFirstOrderProblem } from "./decode-input";
 import { accumulateTransitionPosteriors, computePosteriors } from "./forward-backward";
 import { computeForward } from "./forward";
@@ -48,7 +49,16 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
   const config = model.config;
   const sb = sentenceBucketOf(config.positionBuckets, sentenceIndex);
   const buckets = target.buckets > 1 ? fillTransitionBuckets(config.positionBuckets, T, sentenceIndex, new Int32Array(T)) : null;
-  const perStep = model.parameters.prevWord !== null && T >= 2;
+  // buildFirstOrderProblem gives every step its own matrix when either table is on.
+  const perStep = (model.parameters.prevWord !== null || model.parameters.contextEmission !== null) && T >= 2;
+  const S = target.symbols;
+  const segmentStarts = model.segmentStarts;
+  const addContextEmission = (t: number, i: number, j: number, weight: number) => {
+    if (target.contextEmissions === null || segmentStarts === null) return;
+    const context = t === 0 ? K : emissionContext(segmentStarts, K, i, j, symbols[t - 1]);
+    const key = (context * K + j) * S + symbols[t];
+    target.contextEmissions.set(key, (target.contextEmissions.get(key) ?? 0) + weight);
+  };
   const bucketOf = (t: number) => (buckets === null ? 0 : buckets[t]);
   if (method === "em") {
     const post = computePosteriors(params, input);
@@ -58,6 +68,7 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
       target.end[k] += posteriors[(T - 1) * K + k];
     }
     for (let t = 0; t < T; t++) for (let k = 0; k < K; k++) target.emissions[symbols[t] * K + k] += posteriors[t * K + k];
+    for (let k = 0; k < K; k++) if (posteriors[k] > 0) addContextEmission(0, K, k, posteriors[k]);
     if (T >= 2) {
       const xi = new Float64Array(transitionMatrixCount(params) * KK);
       accumulateTransitionPosteriors(params, input, post, 1, xi, null, null);
@@ -70,8 +81,11 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
             const v = xi[t * KK + x];
             if (v === 0) continue;
             target.transitions[b + x] += v;
-            const key = symbols[t - 1] * KK + x;
-            target.prevWord!.set(key, (target.prevWord!.get(key) ?? 0) + v);
+            if (target.prevWord !== null) {
+              const key = symbols[t - 1] * KK + x;
+              target.prevWord.set(key, (target.prevWord.get(key) ?? 0) + v);
+            }
+            addContextEmission(t, Math.floor(x / K), x % K, v);
           }
         }
       }
@@ -86,7 +100,9 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
   target.start[sb * K + path[0]] += 1;
   target.end[path[T - 1]] += 1;
   for (let t = 0; t < T; t++) target.emissions[symbols[t] * K + path[t]] += 1;
+  addContextEmission(0, K, path[0], 1);
   for (let t = 1; t < T; t++) {
+    addContextEmission(t, path[t - 1], path[t], 1);
     target.transitions[bucketOf(t) * KK + path[t - 1] * K + path[t]] += 1;
     if (target.prevWord !== null) {
       const key = (symbols[t - 1] * K + path[t - 1]) * K + path[t];
