@@ -1,5 +1,6 @@
 import { type Disagreement, type ReviewDocumentView, type Span, assignmentStateLabels, compareAnnotations, findOverlap, settleComparison, spanKey } from "@tagloom/contracts";
 import { useMemo, useState } from "react";
+import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
 import { Card, Notice } from "@/components/ui/card";
 import { Select } from "@/components/ui/field";
@@ -73,9 +74,9 @@ export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
               <span className="font-medium text-ink-800">{a.annotator.name}</span>
               <span className="text-ink-500">{assignmentStateLabels[a.state]}</span>
               {a.state === "submitted" ? <span className="text-ink-500">{a.spans.length} spans</span> : null}
-              <a href={openLink(a.id)} className="text-ink-700 underline">
+              <Link to={openLink(a.id)} className="text-ink-700 underline">
                 Open read-only
-              </a>
+              </Link>
               {a.state === "submitted" ? (
                 <Button size="sm" variant="ghost" onClick={() => setReturning(returning === a.id ? null : a.id)}>
                   Send back…
