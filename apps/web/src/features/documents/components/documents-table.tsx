@@ -15,6 +15,52 @@ import { splitLabels, statusLabels } from "./labels";
 const col = createColumnHelper<DocumentListItem>();
 type SplitFilter = "" | "train" | "test" | "none";
 
+/** What the cells need from the screen; passed as table meta so the columns stay the same objects between renders. */
+type TableMeta = { linkTo: (documentId: string) => string; sort: DocumentSort; dir: "asc" | "desc"; onSort: (s: DocumentSort) => void };
+const metaOf = (table: { options: { meta?: unknown } }) => table.options.meta as TableMeta;
+
+// Defined once: TanStack's flexRender treats a cell function as a component, so a new function
+// on every render would remount every cell (and lose focus and hover state).
+const selectColumn = col.display({
+  id: "select",
+  header: ({ table }) => (
+    <input
+      type="checkbox"
+      aria-label="Select all on this page"
+      checked={table.getIsAllRowsSelected()}
+      ref={(el) => {
+        if (el) el.indeterminate = table.getIsSomeRowsSelected();
+      }}
+      onChange={table.getToggleAllRowsSelectedHandler()}
+    />
+  ),
+  cell: ({ row }) => <input type="checkbox" aria-label={`Select ${row.original.title}`} checked={row.getIsSelected()} onChange={row.getToggleSelectedHandler()} />,
+});
+const sortHeader = (label: string, sort: DocumentSort) =>
+  function Header({ table }: { table: { options: { meta?: unknown } } }) {
+    const m = metaOf(table);
+    return <SortButton label={label} sort={sort} current={m.sort} dir={m.dir} onSort={m.onSort} />;
+  };
+const dataColumns = [
+  col.accessor("title", {
+    header: sortHeader("Title", "title"),
+    cell: (c) => (
+      <Link to={metaOf(c.table).linkTo(c.row.original.id)} className="font-medium text-ink-800 underline-offset-2 hover:underline">
+        {c.getValue()}
+      </Link>
+    ),
+  }),
+  col.accessor("filename", { header: "File", cell: (c) => <span className="text-ink-500">{c.getValue() ?? "—"}</span> }),
+  col.accessor("tokenCount", { header: sortHeader("Tokens", "tokens"), cell: (c) => <span className="tabular-nums">{formatCount(c.getValue())}</span> }),
+  col.accessor("split", { header: "Split", cell: (c) => splitLabels[c.getValue() ?? "none"] }),
+  col.accessor("annotationStatus", { header: "Status", cell: (c) => statusLabels[c.getValue()] }),
+  col.accessor("createdAt", {
+    header: sortHeader("Added", "created"),
+    cell: (c) => <span className="whitespace-nowrap text-ink-500">{new Date(c.getValue()).toLocaleString()}</span>,
+  }),
+];
+const managerColumns = [selectColumn, ...dataColumns];
+
 function useDebounced<T>(value: T, ms: number): T {
   const [v, setV] = useState(value);
   useEffect(() => {
@@ -86,52 +132,12 @@ export function DocumentsTable({
     }
   };
 
-  const columns = [
-    ...(canManage
-      ? [
-          col.display({
-            id: "select",
-            header: ({ table }) => (
-              <input
-                type="checkbox"
-                aria-label="Select all on this page"
-                checked={table.getIsAllRowsSelected()}
-                ref={(el) => {
-                  if (el) el.indeterminate = table.getIsSomeRowsSelected();
-                }}
-                onChange={table.getToggleAllRowsSelectedHandler()}
-              />
-            ),
-            cell: ({ row }) => (
-              <input type="checkbox" aria-label={`Select ${row.original.title}`} checked={row.getIsSelected()} onChange={row.getToggleSelectedHandler()} />
-            ),
-          }),
-        ]
-      : []),
-    col.accessor("title", {
-      header: () => <SortButton label="Title" sort="title" current={sort} dir={dir} onSort={onSort} />,
-      cell: (c) => (
-        <Link to={linkTo(c.row.original.id)} className="font-medium text-ink-800 underline-offset-2 hover:underline">
-          {c.getValue()}
-        </Link>
-      ),
-    }),
-    col.accessor("filename", { header: "File", cell: (c) => <span className="text-ink-500">{c.getValue() ?? "—"}</span> }),
-    col.accessor("tokenCount", {
-      header: () => <SortButton label="Tokens" sort="tokens" current={sort} dir={dir} onSort={onSort} />,
-      cell: (c) => <span className="tabular-nums">{formatCount(c.getValue())}</span>,
-    }),
-    col.accessor("split", { header: "Split", cell: (c) => splitLabels[c.getValue() ?? "none"] }),
-    col.accessor("annotationStatus", { header: "Status", cell: (c) => statusLabels[c.getValue()] }),
-    col.accessor("createdAt", {
-      header: () => <SortButton label="Added" sort="created" current={sort} dir={dir} onSort={onSort} />,
-      cell: (c) => <span className="whitespace-nowrap text-ink-500">{new Date(c.getValue()).toLocaleString()}</span>,
-    }),
-  ];
 
+  const meta: TableMeta = { linkTo, sort, dir, onSort };
   const table = useReactTable({
     data: docs.data?.items ?? [],
-    columns,
+    columns: canManage ? managerColumns : dataColumns,
+    meta,
     getCoreRowModel: getCoreRowModel(),
     getRowId: (d) => d.id,
     enableRowSelection: canManage,
