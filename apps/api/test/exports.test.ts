@@ -130,6 +130,18 @@ describe("export and import round-trip", () => {
     expect(audit.body.items.length).toBeGreaterThanOrEqual(4);
   });
 
+  it("exports in upload order: file by file as uploaded, line by line within a file", async () => {
+    const { corpusId: ordered } = await createCorpusWithTypes(manager.agent, admin.orgId, "Ordered export", types);
+    const file = (titles: string[]) => titles.map((title) => JSON.stringify({ title, text: `${title} text.`, spans: [] })).join("\n");
+    await uploadAndWait(manager.agent, admin.orgId, ordered, [
+      { name: "first.jsonl", content: file(["a1", "a2", "a3"]) },
+      { name: "second.jsonl", content: file(["b1", "b2"]) },
+      { name: "third.jsonl", content: file(["c1"]) },
+    ]);
+    const res = await exportOf(manager.agent, admin.orgId, ordered, "format=jsonl");
+    expect((res.body as string).trimEnd().split("\n").map((l) => JSON.parse(l).title)).toEqual(["a1", "a2", "a3", "b1", "b2", "c1"]);
+  });
+
   it("exports an empty file for a corpus with no gold documents", async () => {
     const { corpusId: empty } = await createCorpusWithTypes(manager.agent, admin.orgId, "Empty export", types);
     const res = await exportOf(manager.agent, admin.orgId, empty, "format=conll");

@@ -323,10 +323,12 @@ export function streamGoldDocumentRows(
   const q = db("documents as d")
     .join("document_gold as g", "g.document_id", "d.id")
     .join("document_tokens as t", "t.document_id", "d.id")
+    .leftJoin("upload_files as f", "f.id", "d.upload_file_id")
     .where({ "d.organization_id": organizationId, "d.corpus_id": corpusId, "d.annotation_status": "gold" })
     .select("d.id", "d.title", "d.text", "d.split", "t.starts", "t.ends", "t.sentence_starts", "g.spans")
-    // Upload order: documents of one upload share created_at, so their file and place in it follow.
-    .orderBy([{ column: "d.created_at" }, { column: "d.upload_file_id" }, { column: "d.source_index" }, { column: "d.id" }]);
+    // Upload order: documents stored in one transaction share created_at, so the file's place in
+    // its upload and the document's place in its file come next.
+    .orderBy([{ column: "d.created_at" }, { column: "f.file_index" }, { column: "d.source_index" }, { column: "d.id" }]);
   if (split !== "all") q.where("d.split", split);
   return q.stream({ highWaterMark: 50 }) as unknown as NodeJS.ReadableStream & AsyncIterable<Record<string, unknown>>;
 }
