@@ -15,13 +15,11 @@ import { ColumnFormatError, parseColumnText, type ColumnDocument, type TagScheme
 import { crossValidate } from "./cross-validation";
 import { evaluateModel } from "./evaluation";
 import { parsePositionBuckets } from "./position-buckets";
-import { createSyntheticCorpus, createViterbiWorkload } from "./synthetic";
 import { loadModel, ModelFormatError, serializeModel } from "./serialize";
 import { trainTagger, tagDocument } from "./tagger";
 import type { TaggerModel } from "./tagger-model";
-import { countSupervised } from "./train";
 import { DEFAULT_TRAINING_CONFIG, type TrainingConfig } from "./training-config";
-import { createViterbiWorkspace, decodeViterbi } from "./viterbi";
+import { benchTraining, benchViterbi } from "./cli/bench";
 
 /** An error the user can fix: printed as is, exit code 2. */
 class UsageError extends Error {}
@@ -311,37 +309,6 @@ function commandEvaluate(values: Values): void {
   }
   lines.push(`train ${summary.trainSeconds.toFixed(3)} s, tag ${summary.tagSeconds.toFixed(3)} s (${summary.tagTokensPerSecond} tokens/s)`);
   process.stdout.write(`${lines.join("\n")}\n`);
-}
-
-/** Tokens per second of our Viterbi on the C reference's workload shape (best of `repeats` passes). */
-export function benchViterbi(states: number, tokens: number, repeats: number): number {
-  const { params, emissionTable, words, sentenceStarts } = createViterbiWorkload(states, tokens);
-  const workspace = createViterbiWorkspace(states, 64);
-  const out = new Int32Array(tokens);
-  const sentences = sentenceStarts.length - 1;
-  let best = Infinity;
-  for (let r = 0; r < repeats; r++) {
-    const started = process.hrtime.bigint();
-    for (let s = 0; s < sentences; s++) {
-      const from = sentenceStarts[s];
-      const to = sentenceStarts[s + 1];
-      decodeViterbi(params, { length: to - from, scores: emissionTable, rows: words.subarray(from, to), transitionIndex: null }, out.subarray(from, to), workspace);
-    }
-    best = Math.min(best, seconds(started));
-  }
-  return tokens / best;
-}
-
-/** Supervised counting throughput on an already-encoded corpus (best of `repeats`). */
-export function benchTraining(tokens: number, repeats: number): number {
-  const corpus = createSyntheticCorpus(tokens, 9, 20000);
-  let best = Infinity;
-  for (let r = 0; r < repeats; r++) {
-    const started = process.hrtime.bigint();
-    countSupervised(corpus, { states: 9, symbols: 20000, positionBuckets: { token: [], sentence: [] }, prevWord: false, trigrams: false, segmentStarts: null });
-    best = Math.min(best, seconds(started));
-  }
-  return tokens / best;
 }
 
 function commandBench(values: Values): void {

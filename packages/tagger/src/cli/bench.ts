@@ -1,0 +1,41 @@
+/**
+ * Timing helpers shared by `tagger bench` and bench/run.ts (timing is I/O: it lives with the CLI,
+ * never in the model package).
+ */
+import { createSyntheticCorpus, createViterbiWorkload } from "../synthetic";
+import { countSupervised } from "../train";
+import { createViterbiWorkspace, decodeViterbi } from "../viterbi";
+
+const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
+
+/** Tokens per second of our Viterbi on the C reference's workload shape (best of `repeats` passes). */
+export function benchViterbi(states: number, tokens: number, repeats: number): number {
+  const { params, emissionTable, words, sentenceStarts } = createViterbiWorkload(states, tokens);
+  const workspace = createViterbiWorkspace(states, 64);
+  const out = new Int32Array(tokens);
+  const sentences = sentenceStarts.length - 1;
+  let best = Infinity;
+  for (let r = 0; r < repeats; r++) {
+    const started = process.hrtime.bigint();
+    for (let s = 0; s < sentences; s++) {
+      const from = sentenceStarts[s];
+      const to = sentenceStarts[s + 1];
+      decodeViterbi(params, { length: to - from, scores: emissionTable, rows: words.subarray(from, to), transitionIndex: null }, out.subarray(from, to), workspace);
+    }
+    best = Math.min(best, seconds(started));
+  }
+  return tokens / best;
+}
+
+/** Supervised counting throughput on an already-encoded corpus (best of `repeats`). */
+export function benchTraining(tokens: number, repeats: number): number {
+  const corpus = createSyntheticCorpus(tokens, 9, 20000);
+  let best = Infinity;
+  for (let r = 0; r < repeats; r++) {
+    const started = process.hrtime.bigint();
+    countSupervised(corpus, { states: 9, symbols: 20000, positionBuckets: { token: [], sentence: [] }, prevWord: false, trigrams: false, segmentStarts: null });
+    best = Math.min(best, seconds(started));
+  }
+  return tokens / best;
+}
+

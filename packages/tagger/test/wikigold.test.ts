@@ -1,0 +1,42 @@
+/**
+ * Whole-corpus checks on wikigold (Balasuriya et al. 2009, "Named Entity Recognition in
+ * Wikipedia", People's Web Meets NLP workshop; CC BY 4.0), read from ../shared (never copied):
+ * a trained model survives serialization with identical predictions, chunk confidences and
+ * uncertainty, and the CLI's evaluation agrees with the library's. Accuracy figures are reported
+ * by the benchmark (bench/run.ts), not asserted here.
+ */
+import { readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { describe, expect, it } from "vitest";
+import { parseColumnText } from "../src/conll";
+import { loadModel, serializeModel } from "../src/serialize";
+import { tagDocument, tagSentence, trainTagger } from "../src/tagger";
+import { documentUncertainty } from "../src/uncertainty";
+
+const data = fileURLToPath(new URL("../../../../shared/data/wikigold/", import.meta.url));
+const read = (file: string) => parseColumnText(readFileSync(data + file, "utf8"), { file }).documents;
+
+describe("wikigold whole-corpus checks", () => {
+  const train = read("train.bio");
+  const test = read("test.bio");
+
+  it.each([
+    ["default", {}],
+    ["second order", { order: 2 as const }],
+  ])("a serialized %s model gives identical predictions on the test file", (_name, config) => {
+    const { model } = trainTagger(train, config);
+    const loaded = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    const sentences = test[0].sentences.map((s) => s.words);
+    expect(tagDocument(loaded, sentences)).toEqual(tagDocument(model, sentences));
+    for (const words of sentences.slice(0, 40)) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+    expect(documentUncertainty(loaded, sentences.slice(0, 40))).toEqual(documentUncertainty(model, sentences.slice(0, 40)));
+  });
+
+  it("EM on unlabelled text keeps reporting and round-trips", () => {
+    const unlabelled = [test[0].sentences.slice(0, 100).map((s) => s.words)];
+    const { model, history } = trainTagger(train, { semi: "em", iterations: 2 }, { unlabelled });
+    expect(history.map((r) => r.iteration)).toEqual([1, 2]);
+    const loaded = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    expect(tagDocument(loaded, unlabelled[0])).toEqual(tagDocument(model, unlabelled[0]));
+  });
+});
