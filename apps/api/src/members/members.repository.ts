@@ -96,6 +96,9 @@ export async function deleteMembership(organizationId: string, userId: string, d
  * demotions cannot both pass the last-admin check.
  */
 export async function lockAdminIds(organizationId: string, db: Db): Promise<string[]> {
-  const rows = await db("memberships").where({ organization_id: organizationId, role: "admin" }).forUpdate().select("user_id");
+  // Lock the organization row first: every admin-changing transaction of one organization then
+  // queues behind the others instead of locking member rows in different orders (a deadlock).
+  await db("organizations").where({ id: organizationId }).forUpdate().select("id");
+  const rows = await db("memberships").where({ organization_id: organizationId, role: "admin" }).orderBy("user_id").forUpdate().select("user_id");
   return rows.map((r: { user_id: string }) => r.user_id);
 }
