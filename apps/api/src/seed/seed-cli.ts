@@ -1,5 +1,6 @@
 import { db } from "@/db/knex";
 import { pgPool } from "@/db/pg-pool";
+import { stopJobSender } from "@/jobs/boss";
 import { seedDemoData } from "./seed";
 
 try {
@@ -9,6 +10,7 @@ try {
   console.error(err);
   process.exitCode = 1;
 } finally {
+  await stopJobSender();
   await db.destroy();
   await pgPool.end();
 }
