@@ -221,8 +221,11 @@ try {
   console.log(`requests: ${latencies.length} (${(latencies.length / SECONDS).toFixed(0)}/s), statuses: ${JSON.stringify(Object.fromEntries(statusCounts))}`);
   console.log(`latency ms: p50 ${pct(50).toFixed(1)}, p90 ${pct(90).toFixed(1)}, p95 ${pct(95).toFixed(1)}, p99 ${pct(99).toFixed(1)}, max ${latencies[latencies.length - 1]!.toFixed(1)}`);
   console.log(`errors: ${errors}, timeouts: ${timeouts}, non-200: ${non2xx}, annotators with a lost update: ${lost}`);
-  const ok = pct(95) < P95_TARGET_MS && errors === 0 && timeouts === 0 && non2xx === 0 && lost === 0;
-  console.log(ok ? `PASS: p95 < ${P95_TARGET_MS} ms, no errors, no lost update` : `FAIL: target p95 < ${P95_TARGET_MS} ms, zero errors, no lost update`);
+  const clean = errors === 0 && timeouts === 0 && non2xx === 0 && lost === 0;
+  // The latency target applies to the annotators' pace; a saturation run only reports throughput.
+  const ok = clean && (RATE === 0 || pct(95) < P95_TARGET_MS);
+  if (RATE === 0) console.log(`saturation: ${(latencies.length / SECONDS).toFixed(0)} saves/s; ${clean ? "no errors, no lost update" : "ERRORS or LOST UPDATES"}`);
+  else console.log(ok ? `PASS: p95 < ${P95_TARGET_MS} ms, no errors, no lost update` : `FAIL: target p95 < ${P95_TARGET_MS} ms, zero errors, no lost update`);
   await db.destroy();
   process.exitCode = ok ? 0 : 1;
 } finally {
