@@ -34,20 +34,21 @@ export function emissionContext(segmentStarts: Uint8Array, K: number, i: number,
   return segmentStarts[i * K + j] === 1 ? i : K + 1 + previous;
 }
 
-/** Builds the totals of a count map (S symbols, K states). */
+/**
+ * Builds the per-row totals of a count map (S symbols, K states). The counts map is used as is
+ * (not copied: it can hold a million entries); rows are summed in the map's insertion order, which
+ * serialization preserves, so a loaded model sums fractional counts identically.
+ */
 export function buildContextEmissionTable(counts: ReadonlyMap<number, number>, S: number): ContextEmissionTable {
-  const kept = new Map<number, number>();
   const totals = new Map<number, number>();
   const distinct = new Map<number, number>();
-  for (const key of [...counts.keys()].sort((a, b) => a - b)) {
-    const v = counts.get(key)!;
+  for (const [key, v] of counts) {
     if (!(v > 0)) continue;
-    kept.set(key, v);
     const row = Math.floor(key / S);
     totals.set(row, (totals.get(row) ?? 0) + v);
     distinct.set(row, (distinct.get(row) ?? 0) + 1);
   }
-  return { counts: kept, totals, distinct };
+  return { counts, totals, distinct };
 }
 
 /**

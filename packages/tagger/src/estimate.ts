@@ -146,26 +146,38 @@ export function estimateParameters(stats: SufficientStatistics, options: Estimat
   };
 }
 
-/** Groups previous-word counts by context into CSR rows (contexts and entries in key order). */
+/**
+ * Groups previous-word counts by context into CSR rows, contexts in order of first appearance in
+ * the map and entries in insertion order (no sort: the map can be large, and serialization keeps
+ * insertion order, so a loaded model gets the same rows).
+ */
 export function buildPrevWordTable(counts: ReadonlyMap<number, number>, K: number): PrevWordTable {
-  const keys = [...counts.keys()].filter((key) => counts.get(key)! > 0).sort((a, b) => a - b);
   const rows = new Map<number, number>();
-  const offsets: number[] = [0];
-  const entries = new Int32Array(keys.length);
-  const values = new Float64Array(keys.length);
-  let current = -1;
-  keys.forEach((key, x) => {
+  const sizes: number[] = [];
+  for (const [key, v] of counts) {
+    if (!(v > 0)) continue;
     const context = Math.floor(key / K);
-    if (context !== current) {
-      if (current !== -1) offsets.push(x);
-      rows.set(context, rows.size);
-      current = context;
+    let row = rows.get(context);
+    if (row === undefined) {
+      row = rows.size;
+      rows.set(context, row);
+      sizes.push(0);
     }
+    sizes[row]++;
+  }
+  const offsets = new Int32Array(sizes.length + 1);
+  for (let r = 0; r < sizes.length; r++) offsets[r + 1] = offsets[r] + sizes[r];
+  const fill = offsets.slice(0, sizes.length);
+  const entries = new Int32Array(offsets[sizes.length]);
+  const values = new Float64Array(offsets[sizes.length]);
+  for (const [key, v] of counts) {
+    if (!(v > 0)) continue;
+    const context = Math.floor(key / K);
+    const x = fill[rows.get(context)!]++;
     entries[x] = key - context * K;
-    values[x] = counts.get(key)!;
-  });
-  offsets.push(keys.length);
-  return { rows, offsets: Int32Array.from(keys.length === 0 ? [0] : offsets), entries, values };
+    values[x] = v;
+  }
+  return { rows, offsets, entries, values };
 }
 
 /**

@@ -57,8 +57,9 @@ function toSparse(values: Float64Array): SparseArray {
   return { length: values.length, indices, values: out };
 }
 
+/** Entries in insertion order: estimation sums them in that order, so keeping it keeps sums bit-identical. */
 function mapEntries(map: ReadonlyMap<number, number> | null): Array<[number, number]> | null {
-  return map === null ? null : [...map.entries()].filter(([, v]) => v !== 0).sort((a, b) => a[0] - b[0]);
+  return map === null ? null : [...map.entries()].filter(([, v]) => v !== 0);
 }
 
 /** The model as a plain JSON-compatible object (see SerializedModel). */

@@ -7,15 +7,25 @@
  *   P(t | l_{n-i+1}..l_n) = (P̂(t | l_{n-i+1}..l_n) + θ·P(t | l_{n-i+2}..l_n)) / (1 + θ),
  * starting from the group's tag distribution P̂(t | group) for the empty suffix.
  */
+/** One suffix's tag counts (serialized form). */
 export type SuffixNode = { readonly tags: Int32Array; readonly counts: Float64Array; readonly total: number };
 
+/**
+ * Suffix tag counts in compressed rows: node n (looked up by `${group}\u0001${suffix}`, the empty
+ * suffix being the group's root) has tags[offsets[n]..offsets[n+1]) with their counts and total.
+ * Rows instead of one object per suffix: a million training tokens give hundreds of thousands of
+ * suffixes.
+ */
 export type SuffixStatistics = {
   readonly states: number;
   readonly maxLength: number;
   /** Successive-abstraction weight θ (the same for every suffix length, as in Brants 2000). */
   readonly theta: number;
-  /** Nodes keyed by `${group}\u0001${suffix}`; the empty suffix is the group's root. */
-  readonly nodes: ReadonlyMap<string, SuffixNode>;
+  readonly index: ReadonlyMap<string, number>;
+  readonly offsets: Int32Array;
+  readonly tags: Int32Array;
+  readonly counts: Float64Array;
+  readonly totals: Float64Array;
 };
 
 const SEPARATOR = "\u0001";
@@ -29,14 +39,17 @@ export function createSuffixCollector(states: number, maxLength: number): {
   add(word: string, group: number, tag: number, weight?: number): void;
   finish(theta: number): SuffixStatistics;
 } {
-  const counting = new Map<string, Map<number, number>>();
+  const index = new Map<string, number>();
+  // (node·K + tag) → count, in insertion order.
+  const cells = new Map<number, number>();
   const bump = (key: string, tag: number, weight: number) => {
-    let node = counting.get(key);
+    let node = index.get(key);
     if (node === undefined) {
-      node = new Map();
-      counting.set(key, node);
+      node = index.size;
+      index.set(key, node);
     }
-    node.set(tag, (node.get(tag) ?? 0) + weight);
+    const cell = node * states + tag;
+    cells.set(cell, (cells.get(cell) ?? 0) + weight);
   };
   return {
     add(word, group, tag, weight = 1) {
@@ -46,13 +59,23 @@ export function createSuffixCollector(states: number, maxLength: number): {
       for (let l = 1; l <= longest; l++) bump(nodeKey(group, word.slice(word.length - l)), tag, weight);
     },
     finish(theta) {
-      const nodes = new Map<string, SuffixNode>();
-      for (const [key, node] of counting) {
-        const entries = [...node.entries()].sort((a, b) => a[0] - b[0]);
-        const counts = Float64Array.from(entries, (e) => e[1]);
-        nodes.set(key, { tags: Int32Array.from(entries, (e) => e[0]), counts, total: counts.reduce((a, b) => a + b, 0) });
+      const nodes = index.size;
+      const offsets = new Int32Array(nodes + 1);
+      for (const cell of cells.keys()) offsets[Math.floor(cell / states) + 1]++;
+      for (let n = 0; n < nodes; n++) offsets[n + 1] += offsets[n];
+      const fill = offsets.slice(0, nodes);
+      const tags = new Int32Array(cells.size);
+      const counts = new Float64Array(cells.size);
+      const totals = new Float64Array(nodes);
+      // Cells sorted by tag within each node, so rows read the same after a serialization round trip.
+      for (const cell of [...cells.keys()].sort((x, y) => x - y)) {
+        const node = Math.floor(cell / states);
+        const x = fill[node]++;
+        tags[x] = cell - node * states;
+        counts[x] = cells.get(cell)!;
+        totals[node] += counts[x];
       }
-      return { states, maxLength, theta, nodes };
+      return { states, maxLength, theta, index, offsets, tags, counts, totals };
     },
   };
 }
@@ -74,9 +97,24 @@ export function suffixTheta(tagCounts: Float64Array): number {
   return sum / (s - 1);
 }
 
-/** Rebuilds statistics from serialized nodes. */
-export function createSuffixStatistics(states: number, maxLength: number, theta: number, nodes: Iterable<[string, SuffixNode]>): SuffixStatistics {
-  return { states, maxLength, theta, nodes: new Map(nodes) };
+/** Rebuilds statistics from serialized nodes (tags ascending within each node). */
+export function createSuffixStatistics(states: number, maxLength: number, theta: number, nodes: ReadonlyArray<[string, SuffixNode]>): SuffixStatistics {
+  const index = new Map<string, number>();
+  const offsets = new Int32Array(nodes.length + 1);
+  nodes.forEach(([key, node], n) => {
+    if (index.has(key)) throw new RangeError(`suffix statistics: node ${JSON.stringify(key)} appears twice`);
+    index.set(key, n);
+    offsets[n + 1] = offsets[n] + node.tags.length;
+  });
+  const tags = new Int32Array(offsets[nodes.length]);
+  const counts = new Float64Array(offsets[nodes.length]);
+  const totals = new Float64Array(nodes.length);
+  nodes.forEach(([, node], n) => {
+    tags.set(node.tags, offsets[n]);
+    counts.set(node.counts, offsets[n]);
+    for (let x = 0; x < node.counts.length; x++) totals[n] += node.counts[x];
+  });
+  return { states, maxLength, theta, index, offsets, tags, counts, totals };
 }
 
 /**
@@ -89,20 +127,20 @@ export function suffixLogRatio(stats: SuffixStatistics, word: string, group: num
   const K = stats.states;
   if (out.length < K || scratch.length < 2 * K) throw new RangeError(`suffixLogRatio: buffers need K=${K} and 2K entries`);
   out.fill(0, 0, K);
-  const root = stats.nodes.get(nodeKey(group, ""));
-  if (root === undefined || root.total <= 0) return;
+  const root = stats.index.get(nodeKey(group, ""));
+  if (root === undefined || stats.totals[root] <= 0) return;
   // scratch[0..K) = root distribution, scratch[K..2K) = current abstraction.
   scratch.fill(0, 0, 2 * K);
-  for (let x = 0; x < root.tags.length; x++) scratch[root.tags[x]] = root.counts[x] / root.total;
+  for (let x = stats.offsets[root]; x < stats.offsets[root + 1]; x++) scratch[stats.tags[x]] = stats.counts[x] / stats.totals[root];
   for (let k = 0; k < K; k++) scratch[K + k] = scratch[k];
   const theta = stats.theta;
   const longest = Math.min(stats.maxLength, word.length);
   for (let l = 1; l <= longest; l++) {
-    const node = stats.nodes.get(nodeKey(group, word.slice(word.length - l)));
+    const node = stats.index.get(nodeKey(group, word.slice(word.length - l)));
     // Longer suffixes of an unseen suffix are unseen too: stop at the longest one observed.
-    if (node === undefined || node.total <= 0) break;
+    if (node === undefined || stats.totals[node] <= 0) break;
     for (let k = 0; k < K; k++) scratch[K + k] *= theta;
-    for (let x = 0; x < node.tags.length; x++) scratch[K + node.tags[x]] += node.counts[x] / node.total;
+    for (let x = stats.offsets[node]; x < stats.offsets[node + 1]; x++) scratch[K + stats.tags[x]] += stats.counts[x] / stats.totals[node];
     for (let k = 0; k < K; k++) scratch[K + k] /= 1 + theta;
   }
   for (let k = 0; k < K; k++) {
@@ -111,7 +149,13 @@ export function suffixLogRatio(stats: SuffixStatistics, word: string, group: num
   }
 }
 
-/** Serializable form of the nodes: [key, tags, counts] triples in key order. */
+/** Serializable form of the nodes: [key, tags, counts] triples in node order. */
 export function suffixNodesToJson(stats: SuffixStatistics): Array<[string, number[], number[]]> {
-  return [...stats.nodes.entries()].sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0)).map(([key, node]) => [key, Array.from(node.tags), Array.from(node.counts)]);
+  const out: Array<[string, number[], number[]]> = [];
+  for (const [key, n] of stats.index) {
+    const from = stats.offsets[n];
+    const to = stats.offsets[n + 1];
+    out.push([key, Array.from(stats.tags.subarray(from, to)), Array.from(stats.counts.subarray(from, to))]);
+  }
+  return out;
 }

@@ -56,3 +56,43 @@ export function createSyntheticCorpus(tokens: number, states: number, symbols: n
   }
   return { symbols: symbolIds, tags, sentenceStarts: Int32Array.from(starts), sentenceIndex: new Int32Array(starts.length - 1) };
 }
+
+/**
+ * Labelled documents with `tokens` tokens for timing and memory measurements of the whole
+ * training pipeline: 50 sentences per document, 10..30 tokens per sentence, words drawn from a
+ * skewed distribution over `vocabulary` types (some capitalised), valid IOB2 tags over four
+ * entity types.
+ */
+export function createSyntheticDocuments(tokens: number, vocabulary = 50000, seed = 13): { sentences: { words: string[]; tags: string[] }[] }[] {
+  const rng = createRng(seed);
+  const types = ["PER", "LOC", "ORG", "MISC"];
+  const documents: { sentences: { words: string[]; tags: string[] }[] }[] = [];
+  let done = 0;
+  while (done < tokens) {
+    const sentences: { words: string[]; tags: string[] }[] = [];
+    for (let s = 0; s < 50 && done < tokens; s++) {
+      const length = Math.min(10 + rng.nextInt(21), tokens - done);
+      const words: string[] = [];
+      const tags: string[] = [];
+      let inside: string | null = null;
+      for (let t = 0; t < length; t++) {
+        const u = rng.next();
+        const id = Math.floor(u * u * u * vocabulary);
+        if (inside !== null && rng.next() < 0.5) {
+          tags.push(`I-${inside}`);
+        } else if (rng.next() < 0.1) {
+          inside = types[rng.nextInt(types.length)];
+          tags.push(`B-${inside}`);
+        } else {
+          inside = null;
+          tags.push("O");
+        }
+        words.push(tags[t] === "O" ? `w${id}` : `W${id}`);
+      }
+      sentences.push({ words, tags });
+      done += length;
+    }
+    documents.push({ sentences });
+  }
+  return documents;
+}

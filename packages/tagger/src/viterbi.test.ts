@@ -43,6 +43,24 @@ describe("decodeViterbi", () => {
     }
   });
 
+  it("agrees with brute force on both code paths: unrolled (K ≤ 24) and plain loops (K = 26), shared and per-step matrices", () => {
+    for (const [seed, K, T, matrices] of [
+      [51, 24, 3, 1],
+      [52, 24, 3, 3],
+      [53, 26, 3, 1],
+      [54, 26, 3, 2],
+      [55, 5, 1, 1],
+    ]) {
+      const rng = createRng(seed);
+      const { params, emissionTable } = randomHmm(rng, K, 4, { matrices, end: seed % 2 === 0 });
+      const input = symbolsInput(emissionTable, Int32Array.from({ length: T }, () => rng.nextInt(4)), Int32Array.from({ length: T }, () => rng.nextInt(matrices)));
+      const brute = enumeratePaths(params, input);
+      const { path, logProbability } = decodeViterbi(params, input);
+      expect(Array.from(path), `seed ${seed}`).toEqual(Array.from(brute.bestPath));
+      expect(logProbability, `seed ${seed}`).toBeCloseTo(brute.bestLogProbability, 10);
+    }
+  });
+
   it("breaks exact ties toward the lowest state index", () => {
     // Two identical states: every path has the same probability, so the answer is all zeros.
     const params = { states: 2, start: new Float64Array([Math.log(0.5), Math.log(0.5)]), transitions: new Float64Array(4).fill(Math.log(0.5)), end: null };

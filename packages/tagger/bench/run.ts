@@ -1,0 +1,86 @@
+/**
+ * Benchmarks (never part of the test run): `pnpm --filter @tagloom/tagger bench`.
+ *  1. Viterbi speed against the C reference ../shared/bench/viterbi_limit.c (gcc -O2, "gather
+ *     scalar"), same workload shape, interleaved in one run: K = 9 and K = 17.
+ *  2. Supervised counting throughput on already-encoded sentences, and the whole training pipeline.
+ *  3. Peak RSS of training on 1,000,000 tokens (separate process).
+ *  4. wikigold cross-validated and test F1 per configuration (bench/wikigold.ts).
+ *  5. Brown news accuracy and NLTK agreement (bench/brown.ts).
+ * Pass section numbers to run only some of them: `tsx bench/run.ts 1 3`.
+ */
+import { execFileSync, spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+import { benchTraining, benchViterbi } from "../src/cli/bench";
+import { createSyntheticCorpus } from "../src/synthetic";
+import { countSupervised } from "../src/train";
+import { segmentStartTable } from "../src/context-emissions";
+import { brownReport, nltkAgreement } from "./brown";
+import { WIKIGOLD_CONFIGURATIONS, wikigoldReport } from "./wikigold";
+
+const here = fileURLToPath(new URL(".", import.meta.url));
+const shared = process.env.TAGLOOM_SHARED ?? resolve(here, "../../../../shared");
+const sections = new Set(process.argv.slice(2).map(Number));
+const want = (n: number) => sections.size === 0 || sections.has(n);
+const print = (line = "") => process.stdout.write(`${line}\n`);
+
+function viterbiAgainstC(): void {
+  const dir = mkdtempSync(join(tmpdir(), "viterbi-limit-"));
+  try {
+    const binary = join(dir, "viterbi_limit");
+    execFileSync("gcc", ["-O2", "-o", binary, join(shared, "bench", "viterbi_limit.c")]);
+    print("1. Viterbi tokens/s, ours vs C (gcc -O2, gather scalar), ~20-token sentences, V = 20,000; best of 2 interleaved rounds");
+    for (const K of [9, 17]) {
+      let c = 0;
+      let ours = 0;
+      for (let round = 0; round < 2; round++) {
+        const line = execFileSync(binary, [String(K), "3000000", "5", "gather", "scalar"], { encoding: "utf8" });
+        c = Math.max(c, Number(/tokens_per_s_best=(\d+)/.exec(line)![1]));
+        ours = Math.max(ours, benchViterbi(K, 2_000_000, 5));
+      }
+      print(`   K=${String(K).padEnd(2)}  C ${(c / 1e6).toFixed(2)} M/s   ours ${(ours / 1e6).toFixed(2)} M/s   ratio ${(ours / c).toFixed(3)} (target ≥ 0.5)`);
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function training(): void {
+  print("2. Training throughput");
+  print(`   counting encoded sentences (start, transition, end, emission counts): ${Math.round(benchTraining(1_000_000, 5)).toLocaleString("en")} tokens/s (target ≥ 1,000,000)`);
+  const corpus = createSyntheticCorpus(1_000_000, 9, 20000);
+  const tags = ["O", "B-PER", "I-PER", "B-LOC", "I-LOC", "B-ORG", "I-ORG", "B-MISC", "I-MISC"];
+  const started = process.hrtime.bigint();
+  countSupervised(corpus, { states: 9, symbols: 20000, positionBuckets: { token: [], sentence: [] }, prevWord: true, trigrams: false, segmentStarts: segmentStartTable(tags, "iob") });
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  print(`   counting with the default tables (+ previous-word and context-emission counts): ${Math.round(1_000_000 / seconds).toLocaleString("en")} tokens/s`);
+}
+
+function memory(): void {
+  const run = spawnSync(process.execPath, [...process.execArgv, join(here, "train-memory.ts"), "1000000"], { encoding: "utf8" });
+  if (run.status !== 0) throw new Error(run.stderr);
+  const result = JSON.parse(run.stdout) as { trainSeconds: number; trainTokensPerSecond: number; peakRssBytes: number; rssBeforeTrainingBytes: number };
+  print("3. Training on 1,000,000 labelled tokens (default configuration, whole pipeline from strings)");
+  print(`   ${result.trainSeconds.toFixed(2)} s (${result.trainTokensPerSecond.toLocaleString("en")} tokens/s); peak RSS ${(result.peakRssBytes / 1048576).toFixed(0)} MB (target < 500 MB), of which the input documents ${(result.rssBeforeTrainingBytes / 1048576).toFixed(0)} MB`);
+}
+
+function wikigold(): void {
+  print("4. wikigold entity F1: 5-fold CV over train+dev articles (mean ± std) and test (trained on train+dev)");
+  for (const row of wikigoldReport(join(shared, "data", "wikigold"), WIKIGOLD_CONFIGURATIONS)) {
+    print(`   CV ${row.cvMean.toFixed(4)} ± ${row.cvStd.toFixed(3)}   test ${row.testF1.toFixed(4)}   ${row.name}  (${row.seconds.toFixed(0)} s)`);
+  }
+}
+
+function brown(): void {
+  print("5. Brown news split, token accuracy: 5-fold CV over the training files and test");
+  for (const row of brownReport()) print(`   CV ${row.cv.toFixed(4)} ± ${row.cvStd.toFixed(4)}   test ${row.test.toFixed(4)}   ${row.name}`);
+  print(`   ${nltkAgreement()}`);
+}
+
+if (want(1)) viterbiAgainstC();
+if (want(2)) training();
+if (want(3)) memory();
+if (want(4)) wikigold();
+if (want(5)) brown();
