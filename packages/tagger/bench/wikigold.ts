@@ -67,6 +67,7 @@ export const WIKIGOLD_CONFIGURATIONS: Array<{ name: string; config: Partial<Trai
   { name: "word classes: bikel", config: { wordClasses: "bikel" } },
   { name: "word classes: none (one unknown-word symbol)", config: { wordClasses: "none" } },
   { name: "suffixes off", config: { suffixLength: 0 } },
+  { name: "lower-case fallback for sentence-initial words off", config: { lowercaseFirstWord: false } },
   { name: "previous-word off", config: { prevWord: false } },
   { name: "context emissions off", config: { contextEmissions: false } },
   { name: "trigram (order 2, deleted interpolation)", config: { order: 2 } },

@@ -36,6 +36,7 @@ training options:
   --position-strength β          pull of each bucket toward the position-free estimate
   --rare N                       words seen ≤ N times are modelled by their word class
   --word-classes none|bikel|extended
+  --lowercase-first-word on|off  read an unknown sentence-initial word as its lower-case form
   --suffix-length N              longest suffix for unknown words (0 = off)
   --suffix-theta θ|brants        successive-abstraction weight
   --order 1|2                    first-order or second-order (trigram) transitions
@@ -60,6 +61,7 @@ const OPTIONS = {
   "position-strength": { type: "string" },
   rare: { type: "string" },
   "word-classes": { type: "string" },
+  "lowercase-first-word": { type: "string" },
   "suffix-length": { type: "string" },
   "suffix-theta": { type: "string" },
   order: { type: "string" },
@@ -137,6 +139,8 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values["position-strength"] !== undefined) config.positionStrength = number("position-strength", values["position-strength"], (n) => n >= 0, "a number ≥ 0");
   if (values.rare !== undefined) config.rare = number("rare", values.rare, (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
   if (values["word-classes"] !== undefined) config.wordClasses = choice("word-classes", values["word-classes"], ["none", "bikel", "extended"] as const);
+  const lowercaseFirstWord = onOff("lowercase-first-word", values["lowercase-first-word"]);
+  if (lowercaseFirstWord !== undefined) config.lowercaseFirstWord = lowercaseFirstWord;
   if (values["suffix-length"] !== undefined) config.suffixLength = number("suffix-length", values["suffix-length"], (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
   if (values["suffix-theta"] !== undefined) {
     config.suffixTheta = values["suffix-theta"] === "brants" ? null : number("suffix-theta", values["suffix-theta"], (n) => n >= 0, "a number ≥ 0 or brants");

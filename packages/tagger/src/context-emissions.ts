@@ -1,3 +1,5 @@
+import { addCount, createCountTable, findEntry, getCount, type CountTable } from "./count-table";
+
 /**
  * Emissions conditioned on context, after Bikel et al. (1997), "Nymble: a high-performance
  * learning name-finder", ANLP, §3.1: the first word of a name class is generated given the
@@ -10,10 +12,10 @@
  */
 export type ContextEmissionTable = {
   /** ((context·K + state)·S + symbol) → count. */
-  readonly counts: ReadonlyMap<number, number>;
+  readonly counts: CountTable;
   /** (context·K + state) → total count n and number of distinct symbols u. */
-  readonly totals: ReadonlyMap<number, number>;
-  readonly distinct: ReadonlyMap<number, number>;
+  readonly totals: CountTable;
+  readonly distinct: CountTable;
 };
 
 /** K×K: 1 where moving from state i to state j starts a new segment. */
@@ -39,14 +41,15 @@ export function emissionContext(segmentStarts: Uint8Array, K: number, i: number,
  * (not copied: it can hold a million entries); rows are summed in the map's insertion order, which
  * serialization preserves, so a loaded model sums fractional counts identically.
  */
-export function buildContextEmissionTable(counts: ReadonlyMap<number, number>, S: number): ContextEmissionTable {
-  const totals = new Map<number, number>();
-  const distinct = new Map<number, number>();
-  for (const [key, v] of counts) {
+export function buildContextEmissionTable(counts: CountTable, S: number): ContextEmissionTable {
+  const totals = createCountTable();
+  const distinct = createCountTable();
+  for (let e = 0; e < counts.size; e++) {
+    const v = counts.values[e];
     if (!(v > 0)) continue;
-    const row = Math.floor(key / S);
-    totals.set(row, (totals.get(row) ?? 0) + v);
-    distinct.set(row, (distinct.get(row) ?? 0) + 1);
+    const row = Math.floor(counts.keys[e] / S);
+    addCount(totals, row, v);
+    addCount(distinct, row, 1);
   }
   return { counts, totals, distinct };
 }
@@ -58,10 +61,12 @@ export function buildContextEmissionTable(counts: ReadonlyMap<number, number>, S
  */
 export function contextEmissionLogRatio(table: ContextEmissionTable, S: number, K: number, context: number, state: number, symbol: number, baseLog: number): number {
   const row = context * K + state;
-  const n = table.totals.get(row);
-  if (n === undefined) return 0;
-  const u = table.distinct.get(row)!;
-  const c = table.counts.get(row * S + symbol) ?? 0;
+  const entry = findEntry(table.totals, row);
+  if (entry < 0) return 0;
+  const n = table.totals.values[entry];
+  // totals and distinct gained their rows in the same order, so the entry numbers agree.
+  const u = table.distinct.values[entry];
+  const c = getCount(table.counts, row * S + symbol);
   const ratio = (c / Math.exp(baseLog) + u) / (n + u);
   return Math.log(ratio);
 }

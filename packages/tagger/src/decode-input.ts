@@ -1,4 +1,6 @@
 import { contextEmissionLogRatio, emissionContext } from "./context-emissions";
+import { getCount } from "./count-table";
+import { prevWordRow } from "./estimate";
 import type { HmmParams, EmissionInput } from "./hmm-params";
 import { fillTransitionBuckets, sentenceBucketOf } from "./position-buckets";
 import type { SecondOrderLattice } from "./second-order-lattice";
@@ -92,8 +94,8 @@ export function buildFirstOrderProblem(
     const base = (buckets === null ? 0 : buckets[t]) * KK;
     for (let i = 0; i < K; i++) {
       const out = t * KK + i * K;
-      const row = table === null ? undefined : table.rows.get(symbols[t - 1] * K + i);
-      if (table === null || row === undefined) {
+      const row = table === null ? -1 : prevWordRow(table, symbols[t - 1] * K + i);
+      if (table === null || row < 0) {
         for (let j = 0; j < K; j++) transitions[out + j] = parameters.transitions[base + i * K + j];
       } else {
         for (let j = 0; j < K; j++) conditional[j] = parameters.transitions[base + i * K + j] - keep[i];
@@ -188,10 +190,10 @@ export function buildSecondOrderLattice(model: TaggerModel, words: readonly stri
   // Interpolated trigram probability P(z | x, y) at position t (z = K: EOS), without the previous word.
   const trigramProbability = (x: number, y: number, z: number, t: number): number => {
     const history = x * K1 + y;
-    const seen = trigram.histories.get(history);
+    const seen = getCount(trigram.histories, history);
     const p12 = l1 * trigram.unigram[z] + l2 * firstOrder(y, z, t);
-    if (seen === undefined) return l1 + l2 > 0 ? p12 / (l1 + l2) : firstOrder(y, z, t);
-    return p12 + (l3 * (trigram.counts.get(history * K1 + z) ?? 0)) / seen;
+    if (seen === 0) return l1 + l2 > 0 ? p12 / (l1 + l2) : firstOrder(y, z, t);
+    return p12 + (l3 * getCount(trigram.counts, history * K1 + z)) / seen;
   };
   const prevTable = parameters.prevWord;
   const contextTable = parameters.contextEmission;
@@ -201,8 +203,8 @@ export function buildSecondOrderLattice(model: TaggerModel, words: readonly stri
   const score = (x: number, y: number, z: number, t: number): number => {
     if (z < K && (y === K ? allowedStart !== null && allowedStart[z] === 0 : allowed !== null && allowed[y * K + z] === 0)) return -Infinity;
     let p = trigramProbability(x, y, z, t);
-    const row = prevTable !== null && z < K && y < K && t >= 1 ? prevTable.rows.get(symbols[t - 1] * K + y) : undefined;
-    if (prevTable !== null && row !== undefined) {
+    const row = prevTable !== null && z < K && y < K && t >= 1 ? prevWordRow(prevTable, symbols[t - 1] * K + y) : -1;
+    if (prevTable !== null && row >= 0) {
       // Witten–Bell over the continuation, as in the first-order case: the counts after (w, y)
       // are conditional on the sentence going on, so interpolate P(z | x, y, not EOS) and rescale.
       const keep = end === null ? 1 : 1 - trigramProbability(x, y, K, t);

@@ -1,3 +1,4 @@
+import { addCount, createCountTable, findEntry, getCount, type CountTable } from "./count-table";
 import { buildContextEmissionTable, type ContextEmissionTable } from "./context-emissions";
 import { estimateAddLambda, shrinkTowardParent } from "./smoothing";
 import type { SufficientStatistics } from "./sufficient-statistics";
@@ -5,7 +6,7 @@ import type { SufficientStatistics } from "./sufficient-statistics";
 /** Previous-word transition counts grouped by context (previous symbol, previous state), CSR. */
 export type PrevWordTable = {
   /** context key (previous symbol·K + previous state) → row index. */
-  readonly rows: ReadonlyMap<number, number>;
+  readonly rows: CountTable;
   readonly offsets: Int32Array;
   /** Next states of each row and their counts. */
   readonly entries: Int32Array;
@@ -24,8 +25,8 @@ export type TrigramTable = {
   /** K+1 maximum-likelihood probabilities of each outcome (index K = EOS). */
   readonly unigram: Float64Array;
   /** Triple counts and history totals, keyed as in SufficientStatistics.trigrams. */
-  readonly counts: ReadonlyMap<number, number>;
-  readonly histories: ReadonlyMap<number, number>;
+  readonly counts: CountTable;
+  readonly histories: CountTable;
 };
 
 /** Everything the decoders read, estimated from sufficient statistics. Log-probabilities. */
@@ -151,33 +152,40 @@ export function estimateParameters(stats: SufficientStatistics, options: Estimat
  * the map and entries in insertion order (no sort: the map can be large, and serialization keeps
  * insertion order, so a loaded model gets the same rows).
  */
-export function buildPrevWordTable(counts: ReadonlyMap<number, number>, K: number): PrevWordTable {
-  const rows = new Map<number, number>();
+export function buildPrevWordTable(counts: CountTable, K: number): PrevWordTable {
+  const rows = createCountTable();
   const sizes: number[] = [];
-  for (const [key, v] of counts) {
-    if (!(v > 0)) continue;
-    const context = Math.floor(key / K);
-    let row = rows.get(context);
-    if (row === undefined) {
-      row = rows.size;
-      rows.set(context, row);
-      sizes.push(0);
+  for (let e = 0; e < counts.size; e++) {
+    if (!(counts.values[e] > 0)) continue;
+    const context = Math.floor(counts.keys[e] / K);
+    const found = findEntry(rows, context);
+    if (found < 0) {
+      addCount(rows, context, sizes.length);
+      sizes.push(1);
+    } else {
+      sizes[rows.values[found]]++;
     }
-    sizes[row]++;
   }
   const offsets = new Int32Array(sizes.length + 1);
   for (let r = 0; r < sizes.length; r++) offsets[r + 1] = offsets[r] + sizes[r];
   const fill = offsets.slice(0, sizes.length);
   const entries = new Int32Array(offsets[sizes.length]);
   const values = new Float64Array(offsets[sizes.length]);
-  for (const [key, v] of counts) {
+  for (let e = 0; e < counts.size; e++) {
+    const v = counts.values[e];
     if (!(v > 0)) continue;
-    const context = Math.floor(key / K);
-    const x = fill[rows.get(context)!]++;
-    entries[x] = key - context * K;
+    const context = Math.floor(counts.keys[e] / K);
+    const x = fill[getCount(rows, context)]++;
+    entries[x] = counts.keys[e] - context * K;
     values[x] = v;
   }
   return { rows, offsets, entries, values };
+}
+
+/** Row index of a previous-word context, or −1. */
+export function prevWordRow(table: PrevWordTable, context: number): number {
+  const e = findEntry(table.rows, context);
+  return e < 0 ? -1 : table.rows.values[e];
 }
 
 /**
@@ -187,32 +195,40 @@ export function buildPrevWordTable(counts: ReadonlyMap<number, number>, K: numbe
  * higher order (the paper does not say; common practice). Here f(x,y) and f(y) are history
  * totals over the same padded positions, so each P̂ is a proper conditional distribution.
  */
-export function buildTrigramTable(trigrams: ReadonlyMap<number, number>, K: number, endState: boolean): TrigramTable {
+export function buildTrigramTable(trigrams: CountTable, K: number, endState: boolean): TrigramTable {
   const K1 = K + 1;
-  const counts = new Map<number, number>();
-  for (const [key, v] of trigrams) if (v > 0 && (endState || key % K1 !== K)) counts.set(key, v);
-  const histories = new Map<number, number>();
+  const counts = createCountTable();
+  for (let e = 0; e < trigrams.size; e++) {
+    const key = trigrams.keys[e];
+    const v = trigrams.values[e];
+    if (v > 0 && (endState || key % K1 !== K)) addCount(counts, key, v);
+  }
+  const histories = createCountTable();
   const bigrams = new Map<number, number>();
   const bigramHistories = new Float64Array(K1);
   const unigramCounts = new Float64Array(K1);
   let N = 0;
-  for (const [key, v] of counts) {
+  for (let e = 0; e < counts.size; e++) {
+    const key = counts.keys[e];
+    const v = counts.values[e];
     const z = key % K1;
     const history = (key - z) / K1;
     const y = history % K1;
-    histories.set(history, (histories.get(history) ?? 0) + v);
+    addCount(histories, history, v);
     bigrams.set(y * K1 + z, (bigrams.get(y * K1 + z) ?? 0) + v);
     bigramHistories[y] += v;
     unigramCounts[z] += v;
     N += v;
   }
   const lambda = [0, 0, 0];
-  for (const [key, v] of [...counts.entries()].sort((a, b) => a[0] - b[0])) {
+  for (let e = 0; e < counts.size; e++) {
+    const key = counts.keys[e];
+    const v = counts.values[e];
     const z = key % K1;
     const history = (key - z) / K1;
     const y = history % K1;
     const ratio = (num: number, den: number) => (den > 0 ? num / den : 0);
-    const c3 = ratio(v - 1, histories.get(history)! - 1);
+    const c3 = ratio(v - 1, getCount(histories, history) - 1);
     const c2 = ratio(bigrams.get(y * K1 + z)! - 1, bigramHistories[y] - 1);
     const c1 = ratio(unigramCounts[z] - 1, N - 1);
     if (c3 >= c2 && c3 >= c1) lambda[2] += v;

@@ -16,6 +16,7 @@ export function nltkCompatibleConfig(gamma: number): TrainingConfig {
     endState: false,
     positionBuckets: { token: [], sentence: [] },
     rare: 0,
+    lowercaseFirstWord: false,
     wordClasses: "none",
     suffixLength: 0,
     contextEmissions: false,

@@ -1,3 +1,4 @@
+import { addCount } from "./count-table";
 import { emissionContext } from "./context-emissions";
 import { buildFirstOrderProblem } from "./decode-input";
 import { accumulateTransitionPosteriors, computePosteriors } from "./forward-backward";
@@ -57,7 +58,7 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
     if (target.contextEmissions === null || segmentStarts === null) return;
     const context = t === 0 ? K : emissionContext(segmentStarts, K, i, j, symbols[t - 1]);
     const key = (context * K + j) * S + symbols[t];
-    target.contextEmissions.set(key, (target.contextEmissions.get(key) ?? 0) + weight);
+    addCount(target.contextEmissions, key, weight);
   };
   const bucketOf = (t: number) => (buckets === null ? 0 : buckets[t]);
   if (method === "em") {
@@ -83,7 +84,7 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
             target.transitions[b + x] += v;
             if (target.prevWord !== null) {
               const key = symbols[t - 1] * KK + x;
-              target.prevWord.set(key, (target.prevWord.get(key) ?? 0) + v);
+              addCount(target.prevWord, key, v);
             }
             addContextEmission(t, Math.floor(x / K), x % K, v);
           }
@@ -106,7 +107,7 @@ function countUnlabelledSentence(model: TaggerModel, words: readonly string[], s
     target.transitions[bucketOf(t) * KK + path[t - 1] * K + path[t]] += 1;
     if (target.prevWord !== null) {
       const key = (symbols[t - 1] * K + path[t - 1]) * K + path[t];
-      target.prevWord.set(key, (target.prevWord.get(key) ?? 0) + 1);
+      addCount(target.prevWord, key, 1);
     }
   }
   target.tokens += T;

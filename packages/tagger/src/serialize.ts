@@ -1,3 +1,4 @@
+import { addCount, createCountTable, findEntry, type CountTable } from "./count-table";
 import { createSuffixStatistics, suffixNodesToJson, type SuffixNode } from "./suffix-model";
 import { createSufficientStatistics, type SufficientStatistics } from "./sufficient-statistics";
 import { assembleModel, type DataSummary, type TaggerModel } from "./tagger-model";
@@ -58,8 +59,11 @@ function toSparse(values: Float64Array): SparseArray {
 }
 
 /** Entries in insertion order: estimation sums them in that order, so keeping it keeps sums bit-identical. */
-function mapEntries(map: ReadonlyMap<number, number> | null): Array<[number, number]> | null {
-  return map === null ? null : [...map.entries()].filter(([, v]) => v !== 0);
+function mapEntries(table: CountTable | null): Array<[number, number]> | null {
+  if (table === null) return null;
+  const out: Array<[number, number]> = [];
+  for (let e = 0; e < table.size; e++) if (table.values[e] !== 0) out.push([table.keys[e], table.values[e]]);
+  return out;
 }
 
 /** The model as a plain JSON-compatible object (see SerializedModel). */
@@ -145,16 +149,17 @@ function fromSparse(value: unknown, length: number, path: string): Float64Array 
   return out;
 }
 
-function fromEntries(value: unknown, path: string, limit: number): Map<number, number> | null {
+function fromEntries(value: unknown, path: string, limit: number): CountTable | null {
   if (value === null) return null;
-  const map = new Map<number, number>();
+  const table = createCountTable(Array.isArray(value) ? value.length : 0);
   array(value, path).forEach((entry, n) => {
     const pair = array(entry, `${path}[${n}]`);
     const key = integer(pair[0], `${path}[${n}][0]`);
     if (key >= limit) throw new ModelFormatError(`${path}[${n}][0]`, `key ${key} outside the table (${limit})`);
-    map.set(key, finite(pair[1], `${path}[${n}][1]`));
+    if (findEntry(table, key) >= 0) throw new ModelFormatError(`${path}[${n}][0]`, `key ${key} appears twice`);
+    addCount(table, key, finite(pair[1], `${path}[${n}][1]`));
   });
-  return map;
+  return table;
 }
 
 /**
@@ -186,7 +191,7 @@ export function loadModel(json: unknown): TaggerModel {
   if (wordClasses !== "none" && wordClasses !== "bikel" && wordClasses !== "extended") throw new ModelFormatError("vocabulary.wordClasses", "expected none, bikel or extended");
   let vocabulary;
   try {
-    vocabulary = createVocabulary(strings(vocabularyJson.words, "vocabulary.words"), wordClasses);
+    vocabulary = createVocabulary(strings(vocabularyJson.words, "vocabulary.words"), wordClasses, config.lowercaseFirstWord);
   } catch (error) {
     throw new ModelFormatError("vocabulary.words", (error as Error).message);
   }

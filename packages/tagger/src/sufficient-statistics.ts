@@ -1,3 +1,5 @@
+import { addCount, cloneCountTable, createCountTable, type CountTable } from "./count-table";
+
 /**
  * Sufficient statistics of the tagger: additive counts from which every parameter is estimated.
  * Counts from labelled data, expected counts from EM and sampled counts all have this shape, so
@@ -20,14 +22,14 @@ export type SufficientStatistics = {
   /** S×K: (symbol, state) pairs. */
   readonly emissions: Float64Array;
   /** ((previous symbol·K + from)·K + to) → count, for previous-word transitions; null when off. */
-  readonly prevWord: Map<number, number> | null;
+  readonly prevWord: CountTable | null;
   /**
    * ((x·(K+1) + y)·(K+1) + z) → count of state triples over each sentence padded as
    * BOS BOS s_0 … s_{T-1} [EOS], boundary index K; null when the model is first-order.
    */
-  readonly trigrams: Map<number, number> | null;
+  readonly trigrams: CountTable | null;
   /** ((context·K + state)·S + symbol) → count for context-conditioned emissions (context-emissions.ts); null when off. */
-  readonly contextEmissions: Map<number, number> | null;
+  readonly contextEmissions: CountTable | null;
   /** Tokens and sentences counted (weighted). */
   tokens: number;
   sentences: number;
@@ -56,9 +58,9 @@ export function createSufficientStatistics(shape: {
     transitions: new Float64Array(B * K * K),
     end: new Float64Array(K),
     emissions: new Float64Array(S * K),
-    prevWord: shape.prevWord ? new Map() : null,
-    trigrams: shape.trigrams ? new Map() : null,
-    contextEmissions: shape.contextEmissions ? new Map() : null,
+    prevWord: shape.prevWord ? createCountTable() : null,
+    trigrams: shape.trigrams ? createCountTable() : null,
+    contextEmissions: shape.contextEmissions ? createCountTable() : null,
     tokens: 0,
     sentences: 0,
   };
@@ -79,10 +81,10 @@ export function addStatistics(a: SufficientStatistics, b: SufficientStatistics, 
     for (let i = 0; i < out.length; i++) out[i] += weight * y[i];
     return out;
   };
-  const sparse = (x: Map<number, number> | null, y: Map<number, number> | null) => {
+  const sparse = (x: CountTable | null, y: CountTable | null) => {
     if (x === null || y === null) return null;
-    const out = new Map(x);
-    for (const [key, v] of y) out.set(key, (out.get(key) ?? 0) + weight * v);
+    const out = cloneCountTable(x);
+    for (let e = 0; e < y.size; e++) addCount(out, y.keys[e], weight * y.values[e]);
     return out;
   };
   return {
@@ -106,11 +108,16 @@ export function addStatistics(a: SufficientStatistics, b: SufficientStatistics, 
 export function statisticsSize(stats: SufficientStatistics, representation: "dense" | "sparse"): { cells: number; bytes: number } {
   let cells = 0;
   let denseCells = 0;
+  const nonZero = (table: CountTable | null) => {
+    let n = 0;
+    if (table !== null) for (let e = 0; e < table.size; e++) if (table.values[e] !== 0) n++;
+    return n;
+  };
   for (const arr of [stats.start, stats.transitions, stats.end, stats.emissions]) {
     denseCells += arr.length;
     for (let i = 0; i < arr.length; i++) if (arr[i] !== 0) cells++;
   }
-  const sparseEntries = (stats.prevWord?.size ?? 0) + (stats.trigrams?.size ?? 0) + (stats.contextEmissions?.size ?? 0);
+  const sparseEntries = nonZero(stats.prevWord) + nonZero(stats.trigrams) + nonZero(stats.contextEmissions);
   cells += sparseEntries;
   const bytes = representation === "dense" ? 8 * denseCells + 16 * sparseEntries : 16 * cells;
   return { cells, bytes };

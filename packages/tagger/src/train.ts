@@ -1,3 +1,4 @@
+import { addCount } from "./count-table";
 import { emissionContext } from "./context-emissions";
 import { fillTransitionBuckets, sentenceBucketOf, type PositionBuckets } from "./position-buckets";
 import { createSufficientStatistics, type SufficientStatistics } from "./sufficient-statistics";
@@ -96,7 +97,7 @@ export function countSupervised(corpus: EncodedCorpus, shape: CountingShape): Su
     if (prevWord !== null) {
       for (let n = from + 1; n < to; n++) {
         const key = (symbols[n - 1] * K + tags[n - 1]) * K + tags[n];
-        prevWord.set(key, (prevWord.get(key) ?? 0) + 1);
+        addCount(prevWord, key, 1);
       }
     }
     if (contextEmissions !== null && segmentStarts !== null) {
@@ -104,7 +105,7 @@ export function countSupervised(corpus: EncodedCorpus, shape: CountingShape): Su
         const j = tags[n];
         const context = n === from ? K : emissionContext(segmentStarts, K, tags[n - 1], j, symbols[n - 1]);
         const key = (context * K + j) * S + symbols[n];
-        contextEmissions.set(key, (contextEmissions.get(key) ?? 0) + 1);
+        addCount(contextEmissions, key, 1);
       }
     }
     if (trigrams !== null) {
@@ -113,7 +114,7 @@ export function countSupervised(corpus: EncodedCorpus, shape: CountingShape): Su
       for (let n = from; n <= to; n++) {
         const z = n === to ? K : tags[n];
         const key = (x * K1 + y) * K1 + z;
-        trigrams.set(key, (trigrams.get(key) ?? 0) + 1);
+        addCount(trigrams, key, 1);
         x = y;
         y = z;
       }

@@ -30,6 +30,8 @@ export type TrainingConfig = {
   readonly positionStrength: number;
   /** Words seen at most this often in training are modelled through their word class. */
   readonly rare: number;
+  /** Read an unknown sentence-initial word as its lower-cased-initial form when that form is known. */
+  readonly lowercaseFirstWord: boolean;
   /** Word-feature classes for unknown and rare words; `none` = one unknown-word symbol. */
   readonly wordClasses: "none" | "bikel" | "extended";
   /** Longest suffix used for unknown words (Brants 2000 §2.3); 0 switches suffixes off. */
@@ -77,6 +79,7 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   positionBuckets: { token: [], sentence: [] },
   positionStrength: 10,
   rare: 4,
+  lowercaseFirstWord: true,
   wordClasses: "extended",
   suffixLength: 6,
   suffixMaxFrequency: 10,

@@ -59,7 +59,7 @@ export function prepareTrainingData(documents: readonly ColumnDocument[], config
   }
   const tags = [...tagIndex.keys()];
   const K = tags.length;
-  const vocabulary = buildVocabulary(wordCounts, config.rare, config.wordClasses);
+  const vocabulary = buildVocabulary(wordCounts, config.rare, config.wordClasses, config.lowercaseFirstWord);
 
   const symbols = new Int32Array(tokens);
   const tagIds = new Int32Array(tokens);

@@ -11,6 +11,8 @@ export type Vocabulary = {
   /** Class names; class c is symbol words.length + c. */
   readonly classes: readonly string[];
   readonly scheme: TrainingConfig["wordClasses"];
+  /** An unknown sentence-initial word is read as its form with a lower-case first letter when that form is known. */
+  readonly lowercaseFirstWord: boolean;
   /** Lookup built from `words` (not serialized). */
   readonly index: ReadonlyMap<string, number>;
 };
@@ -21,18 +23,18 @@ export function symbolCount(vocabulary: Vocabulary): number {
 }
 
 /** Builds the vocabulary: words seen more than `rare` times, in first-seen order. */
-export function buildVocabulary(wordCounts: ReadonlyMap<string, number>, rare: number, scheme: TrainingConfig["wordClasses"]): Vocabulary {
+export function buildVocabulary(wordCounts: ReadonlyMap<string, number>, rare: number, scheme: TrainingConfig["wordClasses"], lowercaseFirstWord: boolean): Vocabulary {
   const words: string[] = [];
   for (const [word, count] of wordCounts) if (count > rare) words.push(word);
-  return createVocabulary(words, scheme);
+  return createVocabulary(words, scheme, lowercaseFirstWord);
 }
 
 /** A vocabulary from its word list (as stored in a serialized model). */
-export function createVocabulary(words: readonly string[], scheme: TrainingConfig["wordClasses"]): Vocabulary {
+export function createVocabulary(words: readonly string[], scheme: TrainingConfig["wordClasses"], lowercaseFirstWord: boolean): Vocabulary {
   const index = new Map<string, number>();
   words.forEach((w, i) => index.set(w, i));
   if (index.size !== words.length) throw new RangeError("vocabulary words must be distinct");
-  return { words, classes: scheme === "none" ? ["<unk>"] : wordClassNames(scheme), scheme, index };
+  return { words, classes: scheme === "none" ? ["<unk>"] : wordClassNames(scheme), scheme, lowercaseFirstWord, index };
 }
 
 /** Class id (not symbol) of a word at a sentence position. */
@@ -40,10 +42,19 @@ export function classOf(vocabulary: Vocabulary, word: string, firstInSentence: b
   return vocabulary.scheme === "none" ? 0 : wordClassOf(word, firstInSentence, vocabulary.scheme);
 }
 
-/** Symbol of a word at a sentence position: its own id if known, else its class symbol. */
+/**
+ * Symbol of a word at a sentence position: its own id if known; for an unknown sentence-initial
+ * word (when enabled), the id of the same word with a lower-case first letter ("However" →
+ * "however": capitalisation there is positional, common practice in taggers); else its class.
+ */
 export function symbolOf(vocabulary: Vocabulary, word: string, firstInSentence: boolean): number {
   const id = vocabulary.index.get(word);
-  return id !== undefined ? id : vocabulary.words.length + classOf(vocabulary, word, firstInSentence);
+  if (id !== undefined) return id;
+  if (firstInSentence && vocabulary.lowercaseFirstWord) {
+    const lower = vocabulary.index.get(word.charAt(0).toLowerCase() + word.slice(1));
+    if (lower !== undefined) return lower;
+  }
+  return vocabulary.words.length + classOf(vocabulary, word, firstInSentence);
 }
 
 /**
