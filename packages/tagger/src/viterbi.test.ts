@@ -18,6 +18,15 @@ describe("decodeViterbi", () => {
     expect(Math.exp(logProbability)).toBeCloseTo(0.011573604, 9);
   });
 
+  it("AIMA 3rd ed. Fig. 15.5(b): the last Viterbi message m_1:5 = (.0210, .0024) (scores divided by P(e_1) = 0.55)", () => {
+    const { params, emissionTable } = umbrella;
+    const workspace = createViterbiWorkspace(2, 8);
+    decodeViterbi(params, symbolsInput(emissionTable, Int32Array.from([0, 0, 1, 0, 0])), undefined, workspace);
+    // AIMA starts from the filtered P(X_1 | e_1), i.e. delta_1 / P(e_1).
+    expect(Number((Math.exp(workspace.delta[8]) / 0.55).toFixed(4))).toBe(0.021);
+    expect(Number((Math.exp(workspace.delta[9]) / 0.55).toFixed(4))).toBe(0.0024);
+  });
+
   it("Wikipedia 'Viterbi algorithm' example: normal cold dizzy → H H F, p = 0.01512", () => {
     const { params, emissionTable } = healthFever;
     const { path, logProbability } = decodeViterbi(params, symbolsInput(emissionTable, Int32Array.from([0, 1, 2])));
