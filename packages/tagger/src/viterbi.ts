@@ -18,7 +18,7 @@ export function createViterbiWorkspace(states: number, maxLength: number): Viter
  * constraints); if every path is impossible the log-probability is -Infinity.
  *
  * @param out optional Int32Array of length ≥ T for the path (else one is allocated).
- * @param workspace optional reusable buffers (grown if too small is not done: pass a large one).
+ * @param workspace optional reusable buffers; they must hold T×K entries (RangeError otherwise).
  * @returns the path (T state ids) and its joint log-probability log P(path, observations).
  */
 export function decodeViterbi(
