@@ -37,6 +37,13 @@ export async function getWritableCorpus(organizationId: string, corpusId: string
   return corpus;
 }
 
+/** Like getWritableCorpus, and locks the corpus row so that concurrent changes to it queue up. */
+export async function lockWritableCorpus(organizationId: string, corpusId: string, trx: Db): Promise<Corpus> {
+  const corpus = await getWritableCorpus(organizationId, corpusId, trx);
+  await lockCorpus(organizationId, corpusId, trx);
+  return corpus;
+}
+
 /** The corpus's entity schema in display order: `{id, name, color, hotkey, guideline, position}`. */
 export async function listEntityTypes(organizationId: string, corpusId: string, db?: Db): Promise<EntityType[]> {
   await getCorpus(organizationId, corpusId, db);

@@ -10,8 +10,7 @@ import { db as defaultDb } from "@/db/knex";
 import { type Db, isUuid } from "@/db/types";
 import { countStoredSpansOfType, removeStoredSpansOfType } from "@/documents/documents.service";
 import { ConflictError, NotFoundError } from "@/errors";
-import { getCorpus, getWritableCorpus } from "./corpora.service";
-import { lockCorpus } from "./corpora.repository";
+import { getCorpus, lockWritableCorpus } from "./corpora.service";
 import { deleteEntityTypeRow, findEntityType, insertEntityType, listEntityTypeRows, updateEntityTypeRow } from "./entity-types.repository";
 import { entityTypeSpanStores } from "./span-stores";
 
@@ -33,12 +32,8 @@ function assertUnique(types: EntityType[], candidate: { name?: string | undefine
   }
 }
 
-/** Locks the corpus (so concurrent schema edits queue up) after checking it can change. */
-async function lockWritable(organizationId: string, corpusId: string, trx: Db): Promise<{ name: string }> {
-  const corpus = await getWritableCorpus(organizationId, corpusId, trx);
-  await lockCorpus(organizationId, corpusId, trx);
-  return corpus;
-}
+// Schema edits lock the corpus so that concurrent ones queue up.
+const lockWritable = lockWritableCorpus;
 
 /** Adds a type at the end of the schema; its colour defaults to the next free Okabe–Ito colour. */
 export async function createEntityType(organizationId: string, corpusId: string, input: CreateEntityTypeInput & CreateInput, actor: Actor): Promise<EntityType> {

@@ -298,6 +298,19 @@ export async function updateSplit(
   return count;
 }
 
+/**
+ * Puts the given documents in test and the others given in train with one statement, so that the
+ * rows are locked in one pass (two statements could lock them in two orders and deadlock against
+ * another writer). Returns how many rows changed.
+ */
+export async function assignSplits(organizationId: string, corpusId: string, testIds: string[], trainIds: string[], db: Db = defaultDb): Promise<number> {
+  if (!testIds.length && !trainIds.length) return 0;
+  return db("documents")
+    .where({ organization_id: organizationId, corpus_id: corpusId })
+    .whereRaw("id = ANY(?::uuid[])", [[...testIds, ...trainIds]])
+    .update({ split: db.raw("CASE WHEN id = ANY(?::uuid[]) THEN 'test' ELSE 'train' END", [testIds]), updated_at: db.fn.now() });
+}
+
 /** A gold document as the export reads it, one at a time from a database cursor. */
 export type GoldDocumentRow = {
   id: string;

@@ -16,7 +16,7 @@ import type {
 } from "@tagloom/contracts";
 import { createRng } from "@tagloom/tagger";
 import { type Actor, recordAudit } from "@/audit/audit.service";
-import { getCorpus, getWritableCorpus, listEntityTypes } from "@/corpora/corpora.service";
+import { getCorpus, listEntityTypes, lockWritableCorpus } from "@/corpora/corpora.service";
 import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import { db as defaultDb } from "@/db/knex";
 import { type Db, isUuid } from "@/db/types";
@@ -39,6 +39,7 @@ import {
   summarizeSpansOfType,
   toGoldDocumentRow,
   updateAnnotationStatus,
+  assignSplits,
   updateSplit,
   upsertGoldSpans,
 } from "./documents.repository";
@@ -261,7 +262,8 @@ function shuffled(ids: string[], seed: number): string[] {
  */
 export async function setDocumentSplit(organizationId: string, corpusId: string, input: SetSplitInput, actor: Actor): Promise<SetSplitResult> {
   return defaultDb.transaction(async (trx) => {
-    const corpus = await getWritableCorpus(organizationId, corpusId, trx);
+    // Two splits of one corpus at once would overwrite each other row by row: the second waits.
+    const corpus = await lockWritableCorpus(organizationId, corpusId, trx);
     const target = { type: "corpus", id: corpusId, label: corpus.name };
     if ("documentIds" in input) {
       const ids = [...new Set(input.documentIds)];
@@ -277,8 +279,7 @@ export async function setDocumentSplit(organizationId: string, corpusId: string,
     const testCount = Math.round((ids.length * input.testPercent) / 100);
     const test = ids.slice(0, testCount);
     const train = ids.slice(testCount);
-    await updateSplit(organizationId, corpusId, test, "test", trx);
-    await updateSplit(organizationId, corpusId, train, "train", trx);
+    await assignSplits(organizationId, corpusId, test, train, trx);
     await recordAudit(trx, actor, organizationId, "documents.split_random", target, {
       testPercent: input.testPercent,
       seed: input.seed,
