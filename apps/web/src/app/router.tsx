@@ -1,18 +1,7 @@
+import type { ComponentType } from "react";
 import { createBrowserRouter, type RouteObject } from "react-router";
 import { paths } from "@/config/paths";
 import { AreaPlaceholder } from "./routes/area-placeholder";
-import { AssignmentRoute } from "./routes/assignment";
-import { BatchDetailRoute } from "./routes/batch-detail";
-import { BatchNewRoute } from "./routes/batch-new";
-import { BatchesRoute } from "./routes/batches";
-import { AuditRoute } from "./routes/audit";
-import { CorporaRoute } from "./routes/corpora";
-import { CorpusDocumentsRoute } from "./routes/corpus-documents";
-import { CorpusLayoutRoute } from "./routes/corpus-layout";
-import { CorpusSchemaRoute } from "./routes/corpus-schema";
-import { CorpusSettingsRoute } from "./routes/corpus-settings";
-import { CorpusUploadsRoute } from "./routes/corpus-uploads";
-import { DocumentRoute } from "./routes/document";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
 import { InvitationRoute } from "./routes/invitation";
 import { MembersRoute } from "./routes/members";
@@ -22,39 +11,44 @@ import { OrgHomeRoute } from "./routes/org-home";
 import { OrgLayoutRoute, RootRedirectRoute } from "./routes/org-layout";
 import { OrgSettingsRoute } from "./routes/org-settings";
 import { OutboxRoute } from "./routes/outbox";
-import { QueueRoute } from "./routes/queue";
 import { ResetPasswordRoute } from "./routes/reset-password";
-import { ReviewRoute } from "./routes/review";
-import { ReviewDocumentRoute } from "./routes/review-document";
 import { SignInRoute } from "./routes/sign-in";
 import { SignUpRoute } from "./routes/sign-up";
 import { VerifyEmailRoute } from "./routes/verify-email";
+
+/**
+ * A screen loaded on first visit: the sign-in screens and the frame load at once, the working
+ * screens (and their heavier dependencies, like the annotation workspace) only when opened.
+ */
+function screen<M extends Record<string, unknown>>(load: () => Promise<M>, name: keyof M & string): RouteObject["lazy"] {
+  return async () => ({ Component: (await load())[name] as ComponentType });
+}
 
 /** Screens inside an organization, relative to /o/:orgId. Features add their routes here. */
 const orgRoutes: RouteObject[] = [
   { index: true, element: <OrgHomeRoute /> },
   { path: "members", element: <MembersRoute /> },
-  { path: "audit", element: <AuditRoute /> },
+  { path: "audit", lazy: screen(() => import("./routes/audit"), "AuditRoute") },
   { path: "settings", element: <OrgSettingsRoute /> },
-  { path: "corpora", element: <CorporaRoute /> },
+  { path: "corpora", lazy: screen(() => import("./routes/corpora"), "CorporaRoute") },
   {
     path: "corpora/:corpusId",
-    element: <CorpusLayoutRoute />,
+    lazy: screen(() => import("./routes/corpus-layout"), "CorpusLayoutRoute"),
     children: [
-      { index: true, element: <CorpusDocumentsRoute /> },
-      { path: "schema", element: <CorpusSchemaRoute /> },
-      { path: "uploads", element: <CorpusUploadsRoute /> },
-      { path: "settings", element: <CorpusSettingsRoute /> },
+      { index: true, lazy: screen(() => import("./routes/corpus-documents"), "CorpusDocumentsRoute") },
+      { path: "schema", lazy: screen(() => import("./routes/corpus-schema"), "CorpusSchemaRoute") },
+      { path: "uploads", lazy: screen(() => import("./routes/corpus-uploads"), "CorpusUploadsRoute") },
+      { path: "settings", lazy: screen(() => import("./routes/corpus-settings"), "CorpusSettingsRoute") },
     ],
   },
-  { path: "corpora/:corpusId/documents/:documentId", element: <DocumentRoute /> },
-  { path: "queue", element: <QueueRoute /> },
-  { path: "batches", element: <BatchesRoute /> },
-  { path: "batches/new", element: <BatchNewRoute /> },
-  { path: "review", element: <ReviewRoute /> },
-  { path: "corpora/:corpusId/assignments/:assignmentId", element: <AssignmentRoute /> },
-  { path: "corpora/:corpusId/batches/:batchId", element: <BatchDetailRoute /> },
-  { path: "corpora/:corpusId/batches/:batchId/review/:documentId", element: <ReviewDocumentRoute /> },
+  { path: "corpora/:corpusId/documents/:documentId", lazy: screen(() => import("./routes/document"), "DocumentRoute") },
+  { path: "queue", lazy: screen(() => import("./routes/queue"), "QueueRoute") },
+  { path: "batches", lazy: screen(() => import("./routes/batches"), "BatchesRoute") },
+  { path: "batches/new", lazy: screen(() => import("./routes/batch-new"), "BatchNewRoute") },
+  { path: "review", lazy: screen(() => import("./routes/review"), "ReviewRoute") },
+  { path: "corpora/:corpusId/assignments/:assignmentId", lazy: screen(() => import("./routes/assignment"), "AssignmentRoute") },
+  { path: "corpora/:corpusId/batches/:batchId", lazy: screen(() => import("./routes/batch-detail"), "BatchDetailRoute") },
+  { path: "corpora/:corpusId/batches/:batchId/review/:documentId", lazy: screen(() => import("./routes/review-document"), "ReviewDocumentRoute") },
   { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },
   { path: "billing", element: <AreaPlaceholder title="Billing" what="Seats and billing arrive with the billing work." /> },
 ];
