@@ -1,23 +1,12 @@
-import type { AnnotationStatus, DocumentSplit, DocumentTokens } from "@tagloom/contracts";
+import type { AnnotationStatus, DocumentListItem, DocumentSplit, DocumentTokens } from "@tagloom/contracts";
 import { db as defaultDb } from "@/db/knex";
 import { type Db, iso } from "@/db/types";
 
 /** A span as stored: character offsets and the entity type's id (names can change). */
 export type StoredSpan = { start: number; end: number; typeId: string; confidence?: number };
 
-export type DocumentRow = {
-  id: string;
-  corpusId: string;
-  uploadFileId: string | null;
-  title: string;
-  split: DocumentSplit | null;
-  annotationStatus: AnnotationStatus;
-  charCount: number;
-  tokenCount: number;
-  sentenceCount: number;
-  filename: string | null;
-  createdAt: string;
-};
+/** A row of the Documents table, with the file it came from. */
+export type DocumentRow = DocumentListItem & { uploadFileId: string | null };
 
 type Raw = {
   id: string;
