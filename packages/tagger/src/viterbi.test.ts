@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { createRng } from "./random";
 import { eisner, enumeratePaths, healthFever, iceCream, iceCreamSymbols, randomHmm, symbolsInput, umbrella } from "./testing/hmm-fixtures";
-import { createViterbiWorkspace, decodeViterbi } from "./viterbi";
+import { createViterbiWorkspace, decodeViterbi, decodeViterbiJs } from "./viterbi";
 
 describe("decodeViterbi", () => {
   it("J&M 3rd ed. draft, Appendix A ice cream (no end state): 3 1 3 → H C H, p = 0.0128", () => {
@@ -46,13 +46,14 @@ describe("decodeViterbi", () => {
       const tIndex = Int32Array.from({ length: T }, () => rng.nextInt(matrices));
       const input = symbolsInput(emissionTable, symbols, tIndex);
       const brute = enumeratePaths(params, input);
-      const { path, logProbability } = decodeViterbi(params, input);
-      expect(Array.from(path), `seed ${seed}`).toEqual(Array.from(brute.bestPath));
-      expect(logProbability, `seed ${seed}`).toBeCloseTo(brute.bestLogProbability, 10);
+      for (const { path, logProbability } of [decodeViterbi(params, input), decodeViterbiJs(params, input, new Int32Array(T))]) {
+        expect(Array.from(path), `seed ${seed}`).toEqual(Array.from(brute.bestPath));
+        expect(logProbability, `seed ${seed}`).toBeCloseTo(brute.bestLogProbability, 10);
+      }
     }
   });
 
-  it("agrees with brute force on both code paths: unrolled (K ≤ 24) and plain loops (K = 26), shared and per-step matrices", () => {
+  it("agrees with brute force on every code path: WebAssembly, unrolled (K ≤ 24) and plain loops (K = 26), shared and per-step matrices", () => {
     for (const [seed, K, T, matrices] of [
       [51, 24, 3, 1],
       [52, 24, 3, 3],
@@ -64,9 +65,10 @@ describe("decodeViterbi", () => {
       const { params, emissionTable } = randomHmm(rng, K, 4, { matrices, end: seed % 2 === 0 });
       const input = symbolsInput(emissionTable, Int32Array.from({ length: T }, () => rng.nextInt(4)), Int32Array.from({ length: T }, () => rng.nextInt(matrices)));
       const brute = enumeratePaths(params, input);
-      const { path, logProbability } = decodeViterbi(params, input);
-      expect(Array.from(path), `seed ${seed}`).toEqual(Array.from(brute.bestPath));
-      expect(logProbability, `seed ${seed}`).toBeCloseTo(brute.bestLogProbability, 10);
+      for (const { path, logProbability } of [decodeViterbi(params, input), decodeViterbiJs(params, input, new Int32Array(T))]) {
+        expect(Array.from(path), `seed ${seed}`).toEqual(Array.from(brute.bestPath));
+        expect(logProbability, `seed ${seed}`).toBeCloseTo(brute.bestLogProbability, 10);
+      }
     }
   });
 

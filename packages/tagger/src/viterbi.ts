@@ -1,5 +1,6 @@
 import { checkShapes, transitionMatrixCount, type EmissionInput, type HmmParams } from "./hmm-params";
 import { UNROLL_LIMIT, unrolledForward } from "./viterbi-unrolled";
+import { WASM_STATE_LIMIT, decodeViterbiWasm, isWasmSimdAvailable } from "./viterbi-wasm";
 
 /** Reusable buffers for {@link decodeViterbi}: a T×K score lattice and T×K backpointers. */
 export type ViterbiWorkspace = { delta: Float64Array; backpointers: Int32Array };
@@ -33,12 +34,29 @@ export function decodeViterbi(
   const path = out ?? new Int32Array(T);
   if (path.length < T) throw new RangeError(`decodeViterbi: out has length ${path.length}, expected T=${T}`);
   if (T === 0) return { path, logProbability: 0 };
+  if (workspace !== undefined && (workspace.delta.length < T * K || workspace.backpointers.length < T * K)) {
+    throw new RangeError(`decodeViterbi: workspace holds ${workspace.delta.length / K} tokens, sequence has T=${T}`);
+  }
+  if (K <= WASM_STATE_LIMIT && isWasmSimdAvailable()) {
+    // Same recursion and results, branch-free in WebAssembly SIMD (viterbi-wasm.ts); null when the
+    // scores hold a case it leaves to the JavaScript paths below (NaN, +Infinity, a −0 entry).
+    const logProbability = decodeViterbiWasm(params, input, path, workspace === undefined ? null : workspace.delta);
+    if (logProbability !== null) return { path, logProbability };
+  }
+  return decodeViterbiJs(params, input, path, workspace);
+}
+
+/**
+ * The JavaScript paths of {@link decodeViterbi} (compiled per K up to UNROLL_LIMIT, plain loops
+ * beyond), for engines without WebAssembly SIMD and the inputs the kernel declines; exported
+ * only so that the tests can hold the kernels to each other. Expects checked shapes and T ≥ 1.
+ */
+export function decodeViterbiJs(params: HmmParams, input: EmissionInput, path: Int32Array, workspace?: ViterbiWorkspace): { path: Int32Array; logProbability: number } {
+  const K = params.states;
+  const T = input.length;
   let delta: Float64Array;
   let bp: Int32Array;
   if (workspace !== undefined) {
-    if (workspace.delta.length < T * K || workspace.backpointers.length < T * K) {
-      throw new RangeError(`decodeViterbi: workspace holds ${workspace.delta.length / K} tokens, sequence has T=${T}`);
-    }
     delta = workspace.delta;
     bp = workspace.backpointers;
   } else {
