@@ -11,28 +11,17 @@
 //
 // Run: cd apps/api && npx tsx bench/autosave.ts [seconds=20] [annotators=50] [rate=2]
 import { type ChildProcess, spawn } from "node:child_process";
-import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import autocannon from "autocannon";
 import { startTempPostgres } from "../../../docker-free-scripts/lib/temp-postgres.mjs";
+import { freePort } from "./support/bench-product";
 
 const SECONDS = Number(process.argv[2] ?? 20);
 const ANNOTATORS = Number(process.argv[3] ?? 50);
 const RATE = Number(process.argv[4] ?? 2);
 const P95_TARGET_MS = 50;
 const apiDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.on("error", reject);
-    srv.listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 // An invented text of about 1,000 tokens with a person's name in every sentence.
 function documentText(seed: number): string {

@@ -6,12 +6,11 @@
 //
 // Run: cd apps/api && npx tsx bench/import.ts [documents=10000] [filesPerRequest=1000] [workers=1]
 import { type ChildProcess, spawn } from "node:child_process";
-import fs from "node:fs";
-import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { startMailCatcher } from "@tagloom/fakes";
 import { startTempPostgres } from "../../../docker-free-scripts/lib/temp-postgres.mjs";
+import { freePort, rssMb, stopChildren } from "./support/bench-product";
 
 const DOCUMENTS = Number(process.argv[2] ?? 10_000);
 const PER_REQUEST = Number(process.argv[3] ?? 1000);
@@ -19,28 +18,6 @@ const WORKERS = Number(process.argv[4] ?? 1);
 const TARGET_SECONDS = 120;
 const TARGET_RSS_MB = 500;
 const apiDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.on("error", reject);
-    srv.listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-/** Resident set size of a process in MB, from /proc (Linux). */
-function rssMb(pid: number): number {
-  try {
-    const status = fs.readFileSync(`/proc/${pid}/status`, "utf8");
-    const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
-    return kb / 1024;
-  } catch {
-    return 0;
-  }
-}
 
 // Invented prose: about 300 tokens of words, names, numbers and punctuation per document.
 const words = ["harbour", "ledger", "mooring", "tide", "cargo", "signed", "the", "of", "and", "for", "with", "a", "near", "before", "after", "clerk", "board", "rope", "lantern", "quay"];
@@ -174,17 +151,7 @@ try {
   console.log(`peak API RSS: ${peakApi.toFixed(0)} MB (target < ${TARGET_RSS_MB} MB) ${peakApi < TARGET_RSS_MB ? "OK" : "MISSED"}`);
   await db.destroy();
 } finally {
-  await Promise.all(
-    children.map(
-      (c) =>
-        new Promise<void>((resolve) => {
-          if (c.exitCode !== null) return resolve();
-          c.once("exit", () => resolve());
-          c.kill("SIGTERM");
-          setTimeout(() => c.kill("SIGKILL"), 8000).unref();
-        }),
-    ),
-  );
+  await stopChildren(children);
   await mail.stop();
   pg.stop();
 }

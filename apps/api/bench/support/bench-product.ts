@@ -8,7 +8,8 @@ import { type TempPostgres, startTempPostgres } from "../../../../docker-free-sc
 
 const apiDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
 
-function freePort(): Promise<number> {
+/** A free TCP port on 127.0.0.1 (taken and released at once). */
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = net.createServer();
     srv.on("error", reject);
@@ -17,6 +18,21 @@ function freePort(): Promise<number> {
       srv.close(() => resolve(port));
     });
   });
+}
+
+/** Stops child processes: SIGTERM, then SIGKILL after 8 s. */
+export function stopChildren(children: readonly ChildProcess[]): Promise<void> {
+  return Promise.all(
+    children.map(
+      (c) =>
+        new Promise<void>((resolve) => {
+          if (c.exitCode !== null) return resolve();
+          c.once("exit", () => resolve());
+          c.kill("SIGTERM");
+          setTimeout(() => c.kill("SIGKILL"), 8000).unref();
+        }),
+    ),
+  ).then(() => undefined);
 }
 
 /** Resident set size of a process in MB, from /proc (Linux). */
@@ -49,17 +65,7 @@ export async function startBenchProduct(label: string): Promise<BenchProduct> {
   const mail: MailCatcher = await startMailCatcher();
   const children: ChildProcess[] = [];
   const stop = async () => {
-    await Promise.all(
-      children.map(
-        (c) =>
-          new Promise<void>((resolve) => {
-            if (c.exitCode !== null) return resolve();
-            c.once("exit", () => resolve());
-            c.kill("SIGTERM");
-            setTimeout(() => c.kill("SIGKILL"), 8000).unref();
-          }),
-      ),
-    );
+    await stopChildren(children);
     await mail.stop();
     pg.stop();
   };
