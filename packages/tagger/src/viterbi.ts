@@ -96,6 +96,18 @@ export function decodeViterbiJs(params: HmmParams, input: EmissionInput, path: I
       bp[cur + j] = arg;
     }
   }
+  let arg = bestLastState(delta, T, K, end);
+  const best = delta[(T - 1) * K + arg] + (end === null ? 0 : end[arg]);
+  path[T - 1] = arg;
+  for (let t = T - 1; t > 0; t--) {
+    arg = bp[t * K + arg];
+    path[t - 1] = arg;
+  }
+  return { path, logProbability: best };
+}
+
+/** The best state at the last token (end scores included), ties to the lowest index. */
+function bestLastState(delta: Float64Array, T: number, K: number, end: Float64Array | null): number {
   const last = (T - 1) * K;
   let arg = 0;
   let best = delta[last] + (end === null ? 0 : end[0]);
@@ -106,12 +118,7 @@ export function decodeViterbiJs(params: HmmParams, input: EmissionInput, path: I
       arg = j;
     }
   }
-  path[T - 1] = arg;
-  for (let t = T - 1; t > 0; t--) {
-    arg = bp[t * K + arg];
-    path[t - 1] = arg;
-  }
-  return { path, logProbability: best };
+  return arg;
 }
 
 /**
@@ -125,16 +132,8 @@ function backtrack(params: HmmParams, input: EmissionInput, delta: Float64Array,
   const { transitions: trans, end } = params;
   const tIndex = input.transitionIndex;
   const KK = K * K;
-  const last = (T - 1) * K;
-  let arg = 0;
-  let best = delta[last] + (end === null ? 0 : end[0]);
-  for (let j = 1; j < K; j++) {
-    const s = delta[last + j] + (end === null ? 0 : end[j]);
-    if (s > best) {
-      best = s;
-      arg = j;
-    }
-  }
+  let arg = bestLastState(delta, T, K, end);
+  const best = delta[(T - 1) * K + arg] + (end === null ? 0 : end[arg]);
   path[T - 1] = arg;
   for (let t = T - 1; t > 0; t--) {
     const prev = (t - 1) * K;
