@@ -1,5 +1,5 @@
 import { logSumExp } from "./math";
-import { checkSecondOrderLattice, type SecondOrderLattice } from "./second-order-lattice";
+import { checkSecondOrderLattice, fillFirstPairStep, pairLatticeOffsets, type SecondOrderLattice } from "./second-order-lattice";
 
 /**
  * Forward pass of a second-order HMM over a candidate lattice (pair states; Rabiner 1989 §III-A
@@ -10,9 +10,9 @@ import { checkSecondOrderLattice, type SecondOrderLattice } from "./second-order
 export function computeForwardSecondOrder(lattice: SecondOrderLattice): { alpha: Float64Array; pairOffsets: Int32Array; logLikelihood: number } {
   checkSecondOrderLattice(lattice, "computeForwardSecondOrder");
   const T = lattice.length;
-  const { offsets, emissions, start, second, blockOffsets, blocks, end } = lattice;
+  const { offsets, emissions, start, blockOffsets, blocks, end } = lattice;
   const size = (t: number) => offsets[t + 1] - offsets[t];
-  const pairOffsets = new Int32Array(T + 1);
+  const pairOffsets = pairLatticeOffsets(lattice);
   if (T === 0) return { alpha: new Float64Array(0), pairOffsets, logLikelihood: 0 };
   const n0 = size(0);
   let widest = 0;
@@ -22,13 +22,8 @@ export function computeForwardSecondOrder(lattice: SecondOrderLattice): { alpha:
     for (let a = 0; a < n0; a++) terms[a] = start[a] + emissions[a] + (end === null ? 0 : end[a]);
     return { alpha: new Float64Array(0), pairOffsets, logLikelihood: logSumExp(terms, 0, n0) };
   }
-  for (let t = 1; t < T; t++) pairOffsets[t + 1] = pairOffsets[t] + size(t - 1) * size(t);
   const alpha = new Float64Array(pairOffsets[T]);
-  const n1 = size(1);
-  for (let a = 0; a < n0; a++) {
-    const head = start[a] + emissions[a];
-    for (let b = 0; b < n1; b++) alpha[a * n1 + b] = head + second[a * n1 + b] + emissions[offsets[1] + b];
-  }
+  fillFirstPairStep(lattice, alpha);
   for (let t = 2; t < T; t++) {
     const nA = size(t - 2);
     const nB = size(t - 1);

@@ -53,3 +53,28 @@ export function checkSecondOrderLattice(lattice: SecondOrderLattice, kernel: str
     if (lattice.end.length !== endSize) throw new RangeError(`${kernel}: end has length ${lattice.end.length}, expected ${endSize}`);
   }
 }
+
+/**
+ * Where each pair lattice starts: pairOffsets[t] locates the |C_{t-1}|×|C_t| scores of step t
+ * (t ≥ 1); pairOffsets[T] is the total size. Length T + 1 (all zeros when T ≤ 1).
+ */
+export function pairLatticeOffsets(lattice: SecondOrderLattice): Int32Array {
+  const { offsets, length: T } = lattice;
+  const pairOffsets = new Int32Array(T + 1);
+  for (let t = 1; t < T; t++) pairOffsets[t + 1] = pairOffsets[t] + (offsets[t] - offsets[t - 1]) * (offsets[t + 1] - offsets[t]);
+  return pairOffsets;
+}
+
+/**
+ * Scores of the first pair step, the same for the max-product and sum-product passes:
+ * out[a·|C_1| + b] = start(a) + e_0(a) + second(a, b) + e_1(b).
+ */
+export function fillFirstPairStep(lattice: SecondOrderLattice, out: Float64Array): void {
+  const { offsets, emissions, start, second } = lattice;
+  const n0 = offsets[1] - offsets[0];
+  const n1 = offsets[2] - offsets[1];
+  for (let a = 0; a < n0; a++) {
+    const head = start[a] + emissions[a];
+    for (let b = 0; b < n1; b++) out[a * n1 + b] = head + second[a * n1 + b] + emissions[offsets[1] + b];
+  }
+}

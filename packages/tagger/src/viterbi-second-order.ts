@@ -1,4 +1,4 @@
-import { checkSecondOrderLattice, type SecondOrderLattice } from "./second-order-lattice";
+import { checkSecondOrderLattice, fillFirstPairStep, pairLatticeOffsets, type SecondOrderLattice } from "./second-order-lattice";
 
 /**
  * Viterbi for a second-order HMM (the trigram tagger of Brants 2000 §2; states are pairs of
@@ -13,7 +13,7 @@ export function decodeViterbiSecondOrder(lattice: SecondOrderLattice, out?: Int3
   const path = out ?? new Int32Array(T);
   if (path.length < T) throw new RangeError(`decodeViterbiSecondOrder: out has length ${path.length}, expected T=${T}`);
   if (T === 0) return { path, logProbability: 0 };
-  const { offsets, candidates, emissions, start, second, blockOffsets, blocks, end } = lattice;
+  const { offsets, candidates, emissions, start, blockOffsets, blocks, end } = lattice;
   const size = (t: number) => offsets[t + 1] - offsets[t];
   const n0 = size(0);
   if (T === 1) {
@@ -30,15 +30,10 @@ export function decodeViterbiSecondOrder(lattice: SecondOrderLattice, out?: Int3
     return { path, logProbability: best };
   }
   // Pair lattices: pairOffsets[t] locates delta_t (|C_{t-1}|×|C_t|) for t ≥ 1.
-  const pairOffsets = new Int32Array(T + 1);
-  for (let t = 1; t < T; t++) pairOffsets[t + 1] = pairOffsets[t] + size(t - 1) * size(t);
+  const pairOffsets = pairLatticeOffsets(lattice);
   const delta = new Float64Array(pairOffsets[T]);
   const back = new Int32Array(pairOffsets[T]);
-  const n1 = size(1);
-  for (let a = 0; a < n0; a++) {
-    const head = start[a] + emissions[a];
-    for (let b = 0; b < n1; b++) delta[a * n1 + b] = head + second[a * n1 + b] + emissions[offsets[1] + b];
-  }
+  fillFirstPairStep(lattice, delta);
   for (let t = 2; t < T; t++) {
     const nA = size(t - 2);
     const nB = size(t - 1);
