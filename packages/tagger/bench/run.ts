@@ -14,7 +14,7 @@ import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
 import { benchTraining, benchViterbi } from "../src/cli/bench";
-import { isWasmSimdAvailable } from "../src/viterbi-wasm";
+import { isWasmSimdAvailable } from "../src/kernels/viterbi-wasm";
 import { brownReport, nltkAgreement } from "./brown";
 import { WIKIGOLD_CONFIGURATIONS, wikigoldReport } from "./wikigold";
 

@@ -2,10 +2,10 @@
  * Timing helpers shared by `tagger bench` and bench/run.ts (timing is I/O: it lives with the CLI,
  * never in the model package).
  */
-import { createSyntheticCorpus, createViterbiWorkload } from "../synthetic";
-import { segmentStartTable } from "../context-emissions";
-import { countSupervised } from "../train";
-import { createViterbiWorkspace, decodeViterbi } from "../viterbi";
+import { createSyntheticCorpus, createViterbiWorkload } from "../kernels/synthetic";
+import { segmentStartTable } from "../estimation/context-emissions";
+import { countSupervised } from "../estimation/train";
+import { createViterbiWorkspace, decodeViterbi } from "../kernels/viterbi";
 
 const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
 

@@ -1,0 +1,81 @@
+import type { ColumnDocument } from "../text/conll";
+import { evaluateModel } from "./evaluation";
+import { trainTagger } from "../model/tagger";
+import type { TrainingConfig } from "../estimation/training-config";
+
+/** How the data were split into folds. */
+export type FoldUnit = "documents" | "sentence-blocks";
+
+/**
+ * k folds of contiguous documents (fold f holds documents [⌊f·n/k⌋, ⌊(f+1)·n/k⌋)). When there are
+ * fewer documents than folds (e.g. files without -DOCSTART- lines), the sentences are cut into k
+ * contiguous blocks instead, each treated as one document; neighbouring sentences usually come
+ * from the same article, so this keeps most articles within one fold.
+ */
+export function planFolds(documents: readonly ColumnDocument[], k: number): { unit: FoldUnit; folds: ColumnDocument[][] } {
+  if (!Number.isInteger(k) || k < 2) throw new RangeError(`folds must be an integer ≥ 2, got ${k}`);
+  if (documents.length >= k) {
+    const n = documents.length;
+    return { unit: "documents", folds: Array.from({ length: k }, (_, f) => documents.slice(Math.floor((f * n) / k), Math.floor(((f + 1) * n) / k))) };
+  }
+  const sentences = documents.flatMap((d) => d.sentences);
+  if (sentences.length < k) throw new RangeError(`cannot make ${k} folds from ${sentences.length} sentences`);
+  const n = sentences.length;
+  return {
+    unit: "sentence-blocks",
+    folds: Array.from({ length: k }, (_, f) => [{ sentences: sentences.slice(Math.floor((f * n) / k), Math.floor(((f + 1) * n) / k)) }]),
+  };
+}
+
+/** Scores of one fold; entity figures are null for plain tags. */
+export type FoldScore = { f1: number | null; precision: number | null; recall: number | null; tokenAccuracy: number; tokens: number };
+
+/** Mean and sample standard deviation over folds. */
+export type Spread = { mean: number; std: number };
+
+export type CrossValidationResult = {
+  readonly folds: FoldScore[];
+  readonly unit: FoldUnit;
+  readonly f1: Spread | null;
+  readonly precision: Spread | null;
+  readonly recall: Spread | null;
+  readonly tokenAccuracy: Spread;
+};
+
+function spread(values: number[]): Spread {
+  const mean = values.reduce((a, b) => a + b, 0) / values.length;
+  const variance = values.length > 1 ? values.reduce((a, v) => a + (v - mean) ** 2, 0) / (values.length - 1) : 0;
+  return { mean, std: Math.sqrt(variance) };
+}
+
+/**
+ * k-fold cross-validation over documents: train on k−1 folds, score the held-out fold, report
+ * each fold and the mean and standard deviation (model selection without a small dev set, whose
+ * few hundred entities make F1 swing by several points). Semi-supervised settings need unlabelled
+ * text, so folds are trained supervised.
+ */
+export function crossValidate(documents: readonly ColumnDocument[], config: Partial<TrainingConfig>, k: number): CrossValidationResult {
+  const { unit, folds } = planFolds(documents, k);
+  const scores = folds.map((heldOut, f) => {
+    const training = folds.filter((_, g) => g !== f).flat();
+    const { model } = trainTagger(training, config);
+    const result = evaluateModel(model, heldOut);
+    const e = result.entities;
+    return {
+      f1: e === null ? null : e.overall.f1,
+      precision: e === null ? null : e.overall.precision,
+      recall: e === null ? null : e.overall.recall,
+      tokenAccuracy: result.tokenAccuracy,
+      tokens: result.tokens,
+    };
+  });
+  const entity = scores.every((s) => s.f1 !== null);
+  return {
+    folds: scores,
+    unit,
+    f1: entity ? spread(scores.map((s) => s.f1!)) : null,
+    precision: entity ? spread(scores.map((s) => s.precision!)) : null,
+    recall: entity ? spread(scores.map((s) => s.recall!)) : null,
+    tokenAccuracy: spread(scores.map((s) => s.tokenAccuracy)),
+  };
+}

@@ -1,0 +1,90 @@
+import { tagsToChunks } from "../text/bio";
+import type { ColumnDocument } from "../text/conll";
+import { decodeSentence, sentencePosteriors } from "./decode";
+import { nltkCompatibleConfig } from "../estimation/nltk-compatible";
+import { createRng, type Rng } from "../util/random";
+import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/semi-supervised";
+import { chunkConfidences } from "./span-confidence";
+import { assembleModel, type TaggerModel } from "./tagger-model";
+import { prepareTrainingData } from "../estimation/training-data";
+import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
+
+/** Options of {@link trainTagger} that are not part of the model's configuration. */
+export type TrainOptions = {
+  /** Unlabelled documents → sentences → words, for config.semi = em | sample. */
+  readonly unlabelled?: readonly (readonly (readonly string[])[])[];
+  /** Generator for sampling; default createRng(config.seed). */
+  readonly rng?: Rng;
+  /** Clock in milliseconds for the iteration reports (the package reads no clock itself). */
+  readonly now?: () => number;
+  readonly onIteration?: (report: IterationReport) => void;
+};
+
+/**
+ * Trains a tagger from labelled documents. `config` overrides the defaults (the cross-validated
+ * best settings); with `nltkCompatible: true` every option NLTK's HMM lacks is switched off and
+ * λ (`smoothing.emission`, default 0.1) is NLTK's Lidstone γ. With `semi` set and unlabelled
+ * documents given, the supervised model is refined by EM or sampling, one report per iteration.
+ * Inputs are not modified.
+ */
+export function trainTagger(
+  documents: readonly ColumnDocument[],
+  config: Partial<TrainingConfig> = {},
+  options: TrainOptions = {},
+): { model: TaggerModel; history: IterationReport[] } {
+  const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
+  const data = prepareTrainingData(documents, resolved);
+  const model = assembleModel({
+    config: resolved,
+    scheme: data.scheme,
+    tags: data.tags,
+    vocabulary: data.vocabulary,
+    statistics: data.statistics,
+    suffix: data.suffix,
+    summary: data.summary,
+  });
+  const unlabelled = options.unlabelled ?? [];
+  if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };
+  return refineWithUnlabelled(model, data.statistics, unlabelled, {
+    method: resolved.semi,
+    iterations: resolved.iterations,
+    weight: resolved.weight,
+    rng: options.rng ?? createRng(resolved.seed),
+    now: options.now,
+    onIteration: options.onIteration,
+  });
+}
+
+/** A decoded entity chunk with its marginal probability. */
+export type TaggedChunk = { readonly type: string; readonly start: number; readonly end: number; readonly confidence: number };
+
+/** Output of {@link tagSentence}. */
+export type TaggedSentenceResult = {
+  readonly tags: string[];
+  /** Entity chunks (iob scheme; empty for plain tags), token indices, end exclusive. */
+  readonly chunks: TaggedChunk[];
+  /** log P(words) under the model (natural log; forward algorithm). */
+  readonly logLikelihood: number;
+};
+
+/**
+ * Tags one sentence: Viterbi tags, the entity chunks they form with their confidence (marginal
+ * probability of the chunk, see span-confidence.ts), and the sentence log-likelihood.
+ * `sentenceIndex` is the sentence's index in its document (position-aware models use it).
+ */
+export function tagSentence(model: TaggerModel, words: readonly string[], options: { sentenceIndex?: number } = {}): TaggedSentenceResult {
+  if (words.length === 0) return { tags: [], chunks: [], logLikelihood: 0 };
+  const s = options.sentenceIndex ?? 0;
+  const { path } = decodeSentence(model, words, s);
+  const tags = Array.from(path, (k) => model.tags[k]);
+  const { logLikelihood } = sentencePosteriors(model, words, s);
+  if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
+  const chunks = tagsToChunks(tags);
+  const confidences = chunkConfidences(model, words, s, chunks, logLikelihood);
+  return { tags, chunks: chunks.map((c, i) => ({ ...c, confidence: confidences[i] })), logLikelihood };
+}
+
+/** Viterbi tags of every sentence of a document (no posteriors: the fast path for evaluation). */
+export function tagDocument(model: TaggerModel, sentences: readonly (readonly string[])[]): string[][] {
+  return sentences.map((words, s) => (words.length === 0 ? [] : Array.from(decodeSentence(model, words, s).path, (k) => model.tags[k])));
+}
