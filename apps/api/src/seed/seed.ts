@@ -1,68 +1,157 @@
+import { createRng } from "@tagloom/tagger";
 import type { Actor } from "@/audit/audit.service";
 import { hashPassword } from "@/auth/passwords";
 import { getUserByEmail } from "@/auth/users.service";
 import { insertUser } from "@/auth/users.repository";
+import { saveAssignment, submitAssignment } from "@/annotation/assignments.service";
 import { createBatch } from "@/annotation/batches.service";
-import { createCorpus, listEntityTypes } from "@/corpora/corpora.service";
+import { settleDocument } from "@/annotation/review.service";
+import { createCorpus } from "@/corpora/corpora.service";
 import { createEntityType } from "@/corpora/entity-types.service";
 import { db } from "@/db/knex";
 import { addMember } from "@/members/members.service";
 import { createOrganizationRecord } from "@/orgs/orgs.service";
 import { processFileGroup } from "@/uploads/process-files";
+import type { ReceivedFile } from "@/uploads/upload-storage";
 import { receiveUpload } from "@/uploads/uploads.service";
-import { buildDemoDocuments, demoEntityTypes } from "./demo-corpus";
+import { simulateAnnotator } from "./demo-annotators";
+import { buildDemoDocuments, demoEntityTypes, type DemoDocument } from "./demo-corpus";
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, demoUsers } from "./demo-data";
+import { buildDemoDocx, buildDemoPdf } from "./demo-files";
+
+type Person = Actor & { userId: string; name: string };
+type DemoContext = { organizationId: string; corpusId: string; people: Record<string, Person>; docs: DemoDocument[]; idsByTitle: Map<string, string> };
+
+const DAY = 86_400_000;
+const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY).toISOString().slice(0, 10);
 
 /**
- * Loads the demo organization once: its members, a corpus of invented supply agreements with a
- * schema (some documents gold, split into train and test), and a batch for the two annotators.
- * Later runs change nothing.
+ * Loads the demo organization once: seven members in four roles, a corpus of 400 invented supply
+ * documents (a quarter gold with a test split, some uploaded as generated PDF and Word files), a
+ * batch under review with two annotators' disagreements and a batch in progress. Later runs
+ * change nothing.
  */
 export async function seedDemoData(): Promise<{ created: boolean; organizationId: string | null }> {
   const first = demoUsers[0]!;
   if (await getUserByEmail(first.email)) return { created: false, organizationId: null };
   const passwordHash = await hashPassword(DEMO_PASSWORD);
-  const { organizationId, userIds } = await db.transaction(async (trx) => {
+  const { organizationId, people } = await db.transaction(async (trx) => {
     const org = await createOrganizationRecord(DEMO_ORGANIZATION, trx);
-    const userIds: Record<string, string> = {};
+    const people: Record<string, Person> = {};
     for (const u of demoUsers) {
       const user = await insertUser({ email: u.email, name: u.name, passwordHash, emailVerified: true }, trx);
       await addMember(org.id, user.id, u.role, trx);
-      userIds[u.email] = user.id;
+      people[u.email.split("@")[0]!] = { userId: user.id, email: u.email, name: u.name, ip: null };
     }
-    return { organizationId: org.id, userIds };
+    return { organizationId: org.id, people };
   });
+  const ctx = await seedCorpus(organizationId, people);
+  await seedReviewBatch(ctx);
+  await seedBatchInProgress(ctx);
+  return { created: true, organizationId };
+}
 
-  const manager = demoUsers.find((u) => u.role === "manager")!;
-  const actor: Actor & { userId: string; name: string } = { userId: userIds[manager.email]!, email: manager.email, name: manager.name, ip: null };
-  const corpus = await createCorpus(organizationId, { name: "Supply agreements", description: "Invented supply agreements, purchase orders and amendments for the demo." }, actor);
-  for (const t of demoEntityTypes) await createEntityType(organizationId, corpus.id, t, actor);
-
-  const jsonl = buildDemoDocuments()
-    .map((d) => JSON.stringify(d))
-    .join("\n");
-  const buffer = Buffer.from(`${jsonl}\n`, "utf8");
-  const result = await receiveUpload(
+async function seedCorpus(organizationId: string, people: Record<string, Person>): Promise<DemoContext> {
+  const manager = people.manager!;
+  const corpus = await createCorpus(
     organizationId,
-    corpus.id,
-    { spanMode: "gold" },
-    [{ originalname: "demo-supply-agreements.jsonl", size: buffer.length, buffer, oversized: false }],
-    actor,
+    { name: "Supply agreements", description: "Invented supply agreements, purchase orders, amendments and delivery notes for the demo." },
+    manager,
   );
-  // Process the file now (the queued job finds it done) so the batch below can use its documents.
+  for (const t of demoEntityTypes) await createEntityType(organizationId, corpus.id, t, manager);
+
+  const docs = buildDemoDocuments();
+  const lines = docs
+    .filter((d) => d.format === "jsonl")
+    .map((d) => JSON.stringify(d.gold ? { title: d.title, text: d.text, split: d.split, spans: d.spans } : { title: d.title, text: d.text }));
+  const jsonl = Buffer.from(`${lines.join("\n")}\n`, "utf8");
+  const files: ReceivedFile[] = [{ originalname: "supply-desk-archive.jsonl", size: jsonl.length, buffer: jsonl, oversized: false }];
+  for (const d of docs) {
+    if (d.format === "jsonl") continue;
+    const name = d.title.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase();
+    const buffer = d.format === "pdf" ? buildDemoPdf(d.title, d.text) : await buildDemoDocx(d.title, d.text);
+    files.push({ originalname: `${name}.${d.format}`, size: buffer.length, buffer, oversized: false });
+  }
+  const result = await receiveUpload(organizationId, corpus.id, { spanMode: "gold" }, files, manager);
+  // Process the files now (the queued job then finds them done) so the batches below can use them.
   const queued = result.files.filter((f) => f.state === "queued").map((f) => f.id);
   if (queued.length) await processFileGroup({ organizationId, corpusId: corpus.id, uploadId: result.upload.id, fileIds: queued });
 
-  const fresh = await db("documents").where({ organization_id: organizationId, corpus_id: corpus.id, annotation_status: "none" }).orderBy("source_index").limit(6).pluck("id");
-  if ((await listEntityTypes(organizationId, corpus.id)).length && fresh.length) {
-    const annotators = demoUsers.filter((u) => u.role === "annotator").map((u) => userIds[u.email]!);
-    const due = new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10);
-    await createBatch(
-      organizationId,
-      corpus.id,
-      { name: "First review round", dueDate: due, documentIds: fresh, assignment: { mode: "round_robin", annotatorIds: annotators, annotatorsPerDocument: 2 } },
-      actor,
-    );
+  const rows: { id: string; title: string }[] = await db("documents").where({ organization_id: organizationId, corpus_id: corpus.id }).select("id", "title");
+  const idsByTitle = new Map(rows.map((r) => [r.title, r.id]));
+  return { organizationId, corpusId: corpus.id, people, docs, idsByTitle };
+}
+
+/** Open JSONL documents (their answer key is known), in corpus order. */
+function openDocuments(ctx: DemoContext, skip: number, count: number): { doc: DemoDocument; id: string }[] {
+  return ctx.docs
+    .filter((d) => !d.gold && d.format === "jsonl" && d.text.length < 4000)
+    .slice(skip, skip + count)
+    .map((doc) => ({ doc, id: ctx.idsByTitle.get(doc.title)! }));
+}
+
+async function assignmentsOf(ctx: DemoContext, batchId: string): Promise<{ id: string; documentId: string; annotatorId: string }[]> {
+  return db("assignments")
+    .where({ organization_id: ctx.organizationId, batch_id: batchId })
+    .orderBy(["document_id", "annotator_id"])
+    .select({ id: "id", documentId: "document_id", annotatorId: "annotator_id" });
+}
+
+/**
+ * Two annotators marked the same ten documents and submitted: four have been settled into gold,
+ * six wait for the manager with the annotators' disagreements.
+ */
+async function seedReviewBatch(ctx: DemoContext): Promise<void> {
+  const { people } = ctx;
+  const picked = openDocuments(ctx, 0, 10);
+  const batch = await createBatch(
+    ctx.organizationId,
+    ctx.corpusId,
+    {
+      name: "Second look: spring orders",
+      dueDate: isoDay(3),
+      documentIds: picked.map((p) => p.id),
+      assignment: { mode: "round_robin", annotatorIds: [people.annotator1!.userId, people.annotator2!.userId], annotatorsPerDocument: 2 },
+    },
+    people.manager!,
+  );
+  const rng = createRng(7);
+  for (const a of await assignmentsOf(ctx, batch.id)) {
+    const { doc } = picked.find((p) => p.id === a.documentId)!;
+    const who = a.annotatorId === people.annotator1!.userId ? people.annotator1! : people.annotator2!;
+    const spans = simulateAnnotator(doc.text, doc.spans, who === people.annotator1 ? "careful" : "hasty", rng);
+    const member = { organizationId: ctx.organizationId, userId: who.userId, role: "annotator" as const };
+    const saved = await saveAssignment(member, ctx.corpusId, a.id, { version: 0, spans: spans.map((s) => ({ ...s, origin: "human" as const })), dismissedSuggestions: [] });
+    await submitAssignment(member, ctx.corpusId, a.id, saved.version, who);
   }
-  return { created: true, organizationId };
+  for (const p of picked.slice(0, 4)) {
+    await settleDocument(ctx.organizationId, ctx.corpusId, batch.id, p.id, p.doc.spans, people.manager!);
+  }
+}
+
+/** Two more annotators have a dozen documents each; some started, none submitted yet. */
+async function seedBatchInProgress(ctx: DemoContext): Promise<void> {
+  const { people } = ctx;
+  const picked = openDocuments(ctx, 10, 24);
+  const batch = await createBatch(
+    ctx.organizationId,
+    ctx.corpusId,
+    {
+      name: "Third round: delivery notes and orders",
+      dueDate: isoDay(10),
+      documentIds: picked.map((p) => p.id),
+      assignment: { mode: "round_robin", annotatorIds: [people.annotator3!.userId, people.annotator4!.userId], annotatorsPerDocument: 1 },
+    },
+    people.manager!,
+  );
+  const rng = createRng(11);
+  let n = 0;
+  for (const a of await assignmentsOf(ctx, batch.id)) {
+    if (n++ % 3 !== 0) continue;
+    const { doc } = picked.find((p) => p.id === a.documentId)!;
+    const who = a.annotatorId === people.annotator3!.userId ? people.annotator3! : people.annotator4!;
+    const spans = simulateAnnotator(doc.text, doc.spans, "careful", rng, 0.5);
+    const member = { organizationId: ctx.organizationId, userId: who.userId, role: "annotator" as const };
+    await saveAssignment(member, ctx.corpusId, a.id, { version: 0, spans: spans.map((s) => ({ ...s, origin: "human" as const })), dismissedSuggestions: [] });
+  }
 }
