@@ -4,7 +4,10 @@ import { decodeSentence, sentencePosteriors } from "./decode";
 import { nltkCompatibleConfig } from "../estimation/nltk-compatible";
 import { createRng, type Rng } from "../util/random";
 import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/semi-supervised";
-import { chunkConfidences } from "./span-confidence";
+import { chunkConfidences, chunkConfidencesScaled } from "./span-confidence";
+import { buildSentenceLattice, fastLatticeApplies, type SentenceLattice } from "./sentence-lattice";
+import { computeScaledForwardBackward } from "../kernels/forward-backward-scaled";
+import { decodeViterbi } from "../kernels/viterbi";
 import { assembleModel, type TaggerModel } from "./tagger-model";
 import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
@@ -75,6 +78,10 @@ export type TaggedSentenceResult = {
 export function tagSentence(model: TaggerModel, words: readonly string[], options: { sentenceIndex?: number } = {}): TaggedSentenceResult {
   if (words.length === 0) return { tags: [], chunks: [], logLikelihood: 0 };
   const s = options.sentenceIndex ?? 0;
+  if (fastLatticeApplies(model)) {
+    const fast = tagSentenceFast(model, words);
+    if (fast !== null) return fast;
+  }
   const { path } = decodeSentence(model, words, s);
   const tags = Array.from(path, (k) => model.tags[k]);
   const { logLikelihood } = sentencePosteriors(model, words, s);
@@ -84,7 +91,41 @@ export function tagSentence(model: TaggerModel, words: readonly string[], option
   return { tags, chunks: chunks.map((c, i) => ({ ...c, confidence: confidences[i] })), logLikelihood };
 }
 
+/** Viterbi over a cached sentence lattice (the same kernel and scores as decodeSentence). */
+function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
+  const K = model.tags.length;
+  const T = lattice.length;
+  const params = { states: K, start: lattice.logStart, transitions: lattice.logSteps.subarray(0, Math.max(T, 1) * K * K), end: model.parameters.end };
+  const input = { length: T, scores: lattice.logEmissions.subarray(0, T * K), rows: null, transitionIndex: T > 1 ? lattice.stepIndex : null };
+  return decodeViterbi(params, input).path;
+}
+
+/**
+ * The tagging path of first-order models (see sentence-lattice.ts): one lattice build, Viterbi,
+ * one scaled forward-backward and the chunk probabilities read off it. Null when the scaled
+ * lattice underflows; the caller then takes the log-space path.
+ */
+function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSentenceResult | null {
+  const K = model.tags.length;
+  const lattice = buildSentenceLattice(model, words);
+  const T = lattice.length;
+  const logLikelihood = computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled);
+  if (Number.isNaN(logLikelihood)) return null;
+  const path = decodeLattice(model, lattice);
+  const tags = new Array<string>(T);
+  for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
+  if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
+  const chunks = tagsToChunks(tags);
+  const confidences = chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled);
+  return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
+}
+
 /** Viterbi tags of every sentence of a document (no posteriors: the fast path for evaluation). */
 export function tagDocument(model: TaggerModel, sentences: readonly (readonly string[])[]): string[][] {
-  return sentences.map((words, s) => (words.length === 0 ? [] : Array.from(decodeSentence(model, words, s).path, (k) => model.tags[k])));
+  const fast = fastLatticeApplies(model);
+  return sentences.map((words, s) => {
+    if (words.length === 0) return [];
+    const path = fast ? decodeLattice(model, buildSentenceLattice(model, words)) : decodeSentence(model, words, s).path;
+    return Array.from(path, (k) => model.tags[k]);
+  });
 }
