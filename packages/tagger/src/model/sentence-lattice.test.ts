@@ -12,6 +12,7 @@ import { decodeSentence, sentencePosteriors } from "./decode";
 import { buildSentenceLattice, fastLatticeApplies } from "./sentence-lattice";
 import { chunkConfidences } from "./span-confidence";
 import { tagSentence, trainTagger } from "./tagger";
+import { applyPlatt } from "../estimation/platt";
 
 // The cached lattice must hold exactly the scores of the general builder (buildFirstOrderProblem,
 // itself checked against brute-force enumeration in tagger.test.ts), and tagSentence's fast path
@@ -29,7 +30,7 @@ const heldOut = createSyntheticDocuments(1500, 500, 6).flatMap((d) => d.sentence
 
 describe("buildSentenceLattice", () => {
   it.each(configs)("equals buildFirstOrderProblem's log scores cell for cell (%s)", (_name, config) => {
-    const { model } = trainTagger([...tinyDocuments, ...synthetic], config);
+    const { model } = trainTagger([...tinyDocuments, ...synthetic], { ...config, calibration: "none" });
     expect(fastLatticeApplies(model)).toBe(true);
     const K = model.tags.length;
     for (const words of heldOut.slice(0, 40)) {
@@ -46,7 +47,7 @@ describe("buildSentenceLattice", () => {
   });
 
   it.each(configs)("tagSentence's fast path agrees with the log-space path (%s)", (_name, config) => {
-    const { model } = trainTagger([...tinyDocuments, ...synthetic], config);
+    const { model } = trainTagger([...tinyDocuments, ...synthetic], { ...config, calibration: "none" });
     for (const words of heldOut.slice(0, 60)) {
       const fast = tagSentence(model, words);
       const tags = Array.from(decodeSentence(model, words).path, (k) => model.tags[k]);
@@ -56,6 +57,21 @@ describe("buildSentenceLattice", () => {
       const reference = chunkConfidences(model, words, 0, tagsToChunks(tags), logLikelihood);
       expect(fast.chunks.length).toBe(reference.length);
       fast.chunks.forEach((c, i) => expect(c.confidence).toBeCloseTo(reference[i], 10));
+    }
+  });
+});
+
+describe("calibrated span confidences", () => {
+  it("are the Platt map (fitted on 5-fold CV of the training data) of the raw chunk marginals", () => {
+    const docs = [...tinyDocuments, ...synthetic];
+    const { model } = trainTagger(docs);
+    const raw = trainTagger(docs, { calibration: "none" }).model;
+    expect(model.calibration).not.toBeNull();
+    for (const words of heldOut.slice(0, 20)) {
+      const a = tagSentence(model, words);
+      const b = tagSentence(raw, words);
+      expect(a.tags).toEqual(b.tags);
+      a.chunks.forEach((c, i) => expect(c.confidence).toBeCloseTo(applyPlatt(model.calibration!, b.chunks[i].confidence), 12));
     }
   });
 });

@@ -11,6 +11,8 @@ import { decodeViterbi } from "../kernels/viterbi";
 import { assembleModel, type TaggerModel } from "./tagger-model";
 import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
+import { applyPlatt, fitPlatt, type PlattCalibration } from "../estimation/platt";
+import { planFolds } from "../evaluation/folds";
 
 /** Options of {@link trainTagger} that are not part of the model's configuration. */
 export type TrainOptions = {
@@ -37,7 +39,9 @@ export function trainTagger(
 ): { model: TaggerModel; history: IterationReport[] } {
   const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
   const data = prepareTrainingData(documents, resolved);
+  const calibration = resolved.calibration === "platt" && data.scheme === "iob" && !resolved.nltkCompatible ? fitCalibration(documents, resolved) : null;
   const model = assembleModel({
+    calibration,
     config: resolved,
     scheme: data.scheme,
     tags: data.tags,
@@ -56,6 +60,37 @@ export function trainTagger(
     now: options.now,
     onIteration: options.onIteration,
   });
+}
+
+/** Folds of the cross-validation that fits the confidence calibration. */
+const CALIBRATION_FOLDS = 5;
+
+/**
+ * Platt scaling fitted on the raw chunk marginals of CALIBRATION_FOLDS-fold cross-validation over
+ * the training documents (each fold's model trained on the other folds, same configuration,
+ * supervised only); null when there are too few sentences for the folds or no predicted span.
+ */
+function fitCalibration(documents: readonly ColumnDocument[], config: TrainingConfig): PlattCalibration | null {
+  if (documents.reduce((n, d) => n + d.sentences.length, 0) < CALIBRATION_FOLDS) return null;
+  const plan = planFolds(documents, CALIBRATION_FOLDS);
+  const inner: TrainingConfig = { ...config, calibration: "none", semi: "none" };
+  const confidences: number[] = [];
+  const correct: boolean[] = [];
+  plan.folds.forEach((heldOut, f) => {
+    const train = plan.folds.filter((_, g) => g !== f).flat();
+    if (train.every((d) => d.sentences.every((s) => s.words.length === 0))) return;
+    const { model } = trainTagger(train, inner);
+    for (const doc of heldOut) {
+      doc.sentences.forEach((sentence, i) => {
+        const gold = new Set(tagsToChunks(sentence.tags).map((c) => `${c.type} ${c.start} ${c.end}`));
+        for (const c of tagSentence(model, sentence.words, { sentenceIndex: i }).chunks) {
+          confidences.push(c.confidence);
+          correct.push(gold.has(`${c.type} ${c.start} ${c.end}`));
+        }
+      });
+    }
+  });
+  return confidences.length === 0 ? null : fitPlatt(confidences, correct);
 }
 
 /** A decoded entity chunk with its marginal probability. */
@@ -87,8 +122,15 @@ export function tagSentence(model: TaggerModel, words: readonly string[], option
   const { logLikelihood } = sentencePosteriors(model, words, s);
   if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
   const chunks = tagsToChunks(tags);
-  const confidences = chunkConfidences(model, words, s, chunks, logLikelihood);
+  const confidences = calibrated(model, chunkConfidences(model, words, s, chunks, logLikelihood));
   return { tags, chunks: chunks.map((c, i) => ({ ...c, confidence: confidences[i] })), logLikelihood };
+}
+
+/** Raw chunk marginals through the model's calibration map (in place), if it has one. */
+function calibrated(model: TaggerModel, confidences: number[]): number[] {
+  const map = model.calibration;
+  if (map !== null) for (let c = 0; c < confidences.length; c++) confidences[c] = applyPlatt(map, confidences[c]);
+  return confidences;
 }
 
 /** Viterbi over a cached sentence lattice (the same kernel and scores as decodeSentence). */
@@ -116,7 +158,7 @@ function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSe
   for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
   if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
   const chunks = tagsToChunks(tags);
-  const confidences = chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled);
+  const confidences = calibrated(model, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled));
   return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
 }
 
