@@ -18,6 +18,7 @@ export { nltkCompatibleConfig } from "./estimation/nltk-compatible";
 export { parsePositionBuckets, formatPositionBuckets, type PositionBuckets } from "./estimation/position-buckets";
 export { decodeSentence, sentencePosteriors, sentenceLogLikelihood } from "./model/decode";
 export { chunkConfidences } from "./model/span-confidence";
+export { applyPlatt, fitPlatt, type PlattCalibration } from "./estimation/platt";
 export { decodeViterbi, createViterbiWorkspace, type ViterbiWorkspace } from "./kernels/viterbi";
 export { computeForward } from "./kernels/forward";
 export { computeBackward } from "./kernels/backward";

@@ -31,13 +31,35 @@ describe("tagger CLI", () => {
     const train = run(["train", "--train", "train.bio", "--out", "model.json", "--rare", "0"], { cwd: dir });
     expect(train.stderr).toBe("");
     expect(train.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(1);
+    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(2);
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
     expect(lines.slice(0, 7)).toEqual(["John\tB-PER", "Smith\tI-PER", "lives\tO", "in\tO", "Paris\tB-LOC", ".\tO", ""]);
     const fromStdin = run(["tag", "--model", "model.json"], { cwd: dir, input: "Mary\nvisited\nBerlin\n\nParis\n" });
     expect(fromStdin.stdout).toBe("Mary\tB-PER\nvisited\tO\nBerlin\tB-LOC\n\nParis\tB-LOC\n\n");
+  });
+
+  it("tag --json prints one object per sentence in input order with token-index spans", () => {
+    const train = run(["train", "--train", "train.bio", "--out", "json-model.json", "--rare", "0"], { cwd: dir });
+    expect(train.code).toBe(0);
+    const tagged = run(["tag", "--model", "json-model.json", "--json"], { cwd: dir, input: "Mary\nvisited\nBerlin\n\nParis\n" });
+    expect(tagged.code).toBe(0);
+    const lines = tagged.stdout.trimEnd().split("\n").map((line) => JSON.parse(line));
+    expect(lines).toHaveLength(2);
+    expect(Object.keys(lines[0])).toEqual(["tokens", "tags", "spans"]);
+    expect(lines[0].tokens).toEqual(["Mary", "visited", "Berlin"]);
+    expect(lines[0].tags).toEqual(["B-PER", "O", "B-LOC"]);
+    expect(lines[0].spans.map((s: { start: number; end: number; type: string }) => [s.start, s.end, s.type])).toEqual([
+      [0, 1, "PER"],
+      [2, 3, "LOC"],
+    ]);
+    expect(Object.keys(lines[0].spans[0])).toEqual(["start", "end", "type", "confidence"]);
+    for (const s of [...lines[0].spans, ...lines[1].spans]) {
+      expect(s.confidence).toBeGreaterThan(0);
+      expect(s.confidence).toBeLessThanOrEqual(1);
+    }
+    expect(lines[1]).toMatchObject({ tokens: ["Paris"], tags: ["B-LOC"] });
   });
 
   it("evaluate --json prints exactly the documented object", () => {
@@ -85,10 +107,10 @@ describe("tagger CLI", () => {
     const broken = run(["tag", "--model", "broken.json"], { cwd: dir, input: "a\n" });
     expect(broken.code).toBe(2);
     expect(broken.stderr).toMatch(/^broken\.json:3: invalid JSON/);
-    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 2 }));
+    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 3 }));
     const future = run(["tag", "--model", "future.json"], { cwd: dir, input: "a\n" });
     expect(future.code).toBe(2);
-    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 2/);
+    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 3/);
   });
 
   it("rejects bad options with usage and exit code 2", () => {

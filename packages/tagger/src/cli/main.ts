@@ -1,7 +1,7 @@
 /**
  * The tagger's command line (the only file of the package that does I/O):
  *   pnpm --silent tagger train --train FILE [--train FILE ...] --out MODEL.json [training options]
- *   pnpm --silent tagger tag --model MODEL.json [--input FILE]
+ *   pnpm --silent tagger tag --model MODEL.json [--input FILE] [--json]
  *   pnpm --silent tagger evaluate --test FILE (--model MODEL.json | --train FILE ... [training options]) [--json] [--folds K]
  *   pnpm --silent tagger bench [--json]
  * Relative paths are resolved against INIT_CWD (the directory pnpm was started from) or the
@@ -16,17 +16,17 @@ import { crossValidate } from "../evaluation/cross-validation";
 import { evaluateModel } from "../evaluation/evaluation";
 import { parsePositionBuckets } from "../estimation/position-buckets";
 import { loadModel, ModelFormatError, serializeModel } from "../model/serialize";
-import { trainTagger, tagDocument } from "../model/tagger";
+import { trainTagger, tagDocument, tagSentence } from "../model/tagger";
 import type { TaggerModel } from "../model/tagger-model";
 import { DEFAULT_TRAINING_CONFIG, type TrainingConfig } from "../estimation/training-config";
-import { benchTraining, benchViterbi } from "./bench";
+import { benchTagging, benchTraining, benchViterbi } from "./bench";
 
 /** An error the user can fix: printed as is, exit code 2. */
 class UsageError extends Error {}
 
 const USAGE = `usage:
   tagger train --train FILE [--train FILE ...] --out MODEL.json [training options]
-  tagger tag --model MODEL.json [--input FILE]
+  tagger tag --model MODEL.json [--input FILE] [--json]
   tagger evaluate --test FILE (--model MODEL.json | --train FILE ... [training options]) [--json] [--folds K]
   tagger bench [--json]
 training options:
@@ -45,6 +45,7 @@ training options:
   --end-state on|off             model sentence ends
   --constrain-iob on|off         forbid invalid IOB2 transitions
   --unlabelled FILE --semi em|sample --iterations N --weight W --seed N
+  --calibration platt|none       span confidences calibrated on 5-fold CV of the training data (default platt)
   --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)`;
 
 const OPTIONS = {
@@ -74,6 +75,7 @@ const OPTIONS = {
   iterations: { type: "string" },
   weight: { type: "string" },
   seed: { type: "string" },
+  calibration: { type: "string" },
   beam: { type: "string" },
   "nltk-compatible": { type: "boolean" },
   help: { type: "boolean" },
@@ -159,6 +161,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values.weight !== undefined) config.weight = number("weight", values.weight, (n) => n >= 0, "a number ≥ 0");
   if (values.seed !== undefined) config.seed = number("seed", values.seed, Number.isInteger, "an integer");
   if (values.beam !== undefined) config.beam = number("beam", values.beam, (n) => n >= 1, "a number ≥ 1");
+  if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "none"] as const);
   if (values["nltk-compatible"] === true) config.nltkCompatible = true;
   if (config.semi !== undefined && (values.unlabelled ?? []).length === 0) throw new UsageError("--semi needs --unlabelled FILE");
   if ((values.unlabelled ?? []).length > 0 && config.semi === undefined) throw new UsageError("--unlabelled needs --semi em|sample");
@@ -243,6 +246,18 @@ function commandTag(values: Values): void {
   const text = values.input === undefined ? readFileSync(0, "utf8") : readText(values.input);
   const documents = readTokens(file, text);
   const out: string[] = [];
+  if (values.json === true) {
+    // One object per sentence and line, in input order (a stable interface, see the README).
+    for (const sentences of documents) {
+      sentences.forEach((words, s) => {
+        const result = tagSentence(model, words, { sentenceIndex: s });
+        const spans = result.chunks.map((c) => ({ start: c.start, end: c.end, type: c.type, confidence: c.confidence }));
+        out.push(`${JSON.stringify({ tokens: words, tags: result.tags, spans })}\n`);
+      });
+    }
+    process.stdout.write(out.join(""));
+    return;
+  }
   for (const sentences of documents) {
     const tags = tagDocument(model, sentences);
     sentences.forEach((words, s) => {
@@ -271,7 +286,8 @@ function commandEvaluate(values: Values): void {
   }
   const { documents } = readLabelled([values.test], model.scheme === "iob" ? "iob" : "plain");
   const started = process.hrtime.bigint();
-  const result = evaluateModel(model, documents);
+  // The whole tagging path (tags and span confidences), as the product runs it.
+  const result = evaluateModel(model, documents, { confidences: true });
   const tagSeconds = seconds(started);
   let crossValidation = null;
   if (values.folds !== undefined) {
@@ -319,13 +335,20 @@ function commandBench(values: Values): void {
   const viterbi9 = benchViterbi(9, 2_000_000, 5);
   const viterbi17 = benchViterbi(17, 1_000_000, 5);
   const train = benchTraining(1_000_000, 5);
+  const tagging = benchTagging(200_000, 500_000);
   const peakRssBytes = process.resourceUsage().maxRSS * 1024;
-  const result = { viterbi: { "9": Math.round(viterbi9), "17": Math.round(viterbi17) }, trainTokensPerSecond: Math.round(train), peakRssBytes };
+  const result = {
+    viterbi: { "9": Math.round(viterbi9), "17": Math.round(viterbi17) },
+    trainTokensPerSecond: Math.round(train),
+    tagTokensPerSecond: Math.round(tagging.tokensPerSecond),
+    peakRssBytes,
+  };
   if (values.json === true) process.stdout.write(`${JSON.stringify(result)}\n`);
   else {
     process.stdout.write(
       `Viterbi K=9: ${result.viterbi["9"]} tokens/s\nViterbi K=17: ${result.viterbi["17"]} tokens/s\n` +
-        `training (counting encoded sentences): ${result.trainTokensPerSecond} tokens/s\npeak RSS: ${(peakRssBytes / 1048576).toFixed(1)} MB\n`,
+        `training (counting encoded sentences): ${result.trainTokensPerSecond} tokens/s\n` +
+        `tagging (default configuration, tags and calibrated span confidences): ${result.tagTokensPerSecond} tokens/s\npeak RSS: ${(peakRssBytes / 1048576).toFixed(1)} MB\n`,
     );
   }
 }

@@ -62,6 +62,11 @@ export type TrainingConfig = {
   /** Weight of the unlabelled (expected or sampled) counts relative to the labelled counts. */
   readonly weight: number;
   readonly seed: number;
+  /**
+   * Span-confidence calibration fitted on 5-fold cross-validation over the training documents
+   * (Platt scaling, see platt.ts) and stored in the model; `none` keeps the raw chunk marginals.
+   */
+  readonly calibration: "platt" | "none";
   /** Reproduce NLTK's supervised HMM exactly (see nltk-compatible.ts); ignores the options above it names. */
   readonly nltkCompatible: boolean;
 };
@@ -92,6 +97,7 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   iterations: 5,
   weight: 0.1,
   seed: 1,
+  calibration: "platt",
   nltkCompatible: false,
 };
 
@@ -132,6 +138,7 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (!(config.beam >= 1)) throw new RangeError(`beam must be ≥ 1, got ${config.beam}`);
   if (!["none", "em", "sample"].includes(config.semi)) throw new RangeError(`semi must be none, em or sample, got ${config.semi}`);
   if (!Number.isInteger(config.iterations) || config.iterations < 0) throw new RangeError(`iterations must be an integer ≥ 0, got ${config.iterations}`);
+  if (config.calibration !== "platt" && config.calibration !== "none") throw new RangeError(`calibration must be platt or none, got ${config.calibration}`);
   if (!Number.isInteger(config.seed)) throw new RangeError(`seed must be an integer, got ${config.seed}`);
   checkPositionBuckets(config.positionBuckets);
 }

@@ -1,4 +1,6 @@
 import { describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
 import { sentenceLogLikelihood } from "./decode";
 import { loadModel, MODEL_SCHEMA_VERSION, serializeModel } from "./serialize";
 import { tagDocument, tagSentence, trainTagger } from "./tagger";
@@ -51,7 +53,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads version 1/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1 and 2/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -61,5 +63,33 @@ describe("serializeModel / loadModel", () => {
     const badConfig = JSON.parse(JSON.stringify(json));
     badConfig.config.rare = -3;
     expect(() => loadModel(badConfig)).toThrow(/config: rare must be/);
+  });
+});
+
+describe("schema version 1", () => {
+  it("a version-1 file written before calibration existed still loads and tags identically", () => {
+    // model-v1.json: a model serialized by the schema-1 writer with the tags and chunk
+    // confidences it gave then (synthetic words, no real names).
+    const fixture = JSON.parse(readFileSync(fileURLToPath(new URL("../testing/model-v1.json", import.meta.url)), "utf8")) as {
+      model: { schemaVersion: number };
+      sentences: string[][];
+      expected: { tags: string[]; chunks: { type: string; start: number; end: number; confidence: number }[]; logLikelihood: number }[];
+    };
+    expect(fixture.model.schemaVersion).toBe(1);
+    const model = loadModel(fixture.model);
+    expect(model.calibration).toBeNull();
+    expect(model.config.calibration).toBe("none");
+    fixture.sentences.forEach((words, i) => {
+      const result = tagSentence(model, words);
+      const expected = fixture.expected[i];
+      expect(result.tags).toEqual(expected.tags);
+      expect(result.logLikelihood).toBeCloseTo(expected.logLikelihood, 9);
+      expect(result.chunks.map((c) => [c.type, c.start, c.end])).toEqual(expected.chunks.map((c) => [c.type, c.start, c.end]));
+      result.chunks.forEach((c, k) => expect(c.confidence).toBeCloseTo(expected.chunks[k].confidence, 12));
+    });
+    // Written again, it is a version-2 file with no calibration that loads to the same tags.
+    const again = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    expect(serializeModel(again).schemaVersion).toBe(2);
+    expect(tagSentence(again, fixture.sentences[0]).tags).toEqual(fixture.expected[0].tags);
   });
 });

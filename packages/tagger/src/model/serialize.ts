@@ -4,10 +4,13 @@ import { createSufficientStatistics, type SufficientStatistics } from "../estima
 import { assembleModel, type DataSummary, type TaggerModel } from "./tagger-model";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
 import { createVocabulary, symbolCount } from "../estimation/vocabulary";
+import type { PlattCalibration } from "../estimation/platt";
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 1;
+export const MODEL_SCHEMA_VERSION = 2;
+/** Older versions this release still reads: version 1 had no calibration (raw chunk marginals). */
+const READABLE_VERSIONS = [1, 2];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -25,6 +28,8 @@ export type SerializedModel = {
   vocabulary: { words: string[]; classes: string[]; wordClasses: TrainingConfig["wordClasses"] };
   config: TrainingConfig;
   summary: DataSummary;
+  /** Span-confidence calibration (Platt scaling, a and b), or null for raw marginals. Version 2. */
+  calibration: { method: "platt"; a: number; b: number } | null;
   parameters: {
     kind: "sufficient-statistics";
     states: number;
@@ -77,6 +82,7 @@ export function serializeModel(model: TaggerModel): SerializedModel {
     vocabulary: { words: [...model.vocabulary.words], classes: [...model.vocabulary.classes], wordClasses: model.vocabulary.scheme },
     config: JSON.parse(JSON.stringify(model.config)) as TrainingConfig,
     summary: JSON.parse(JSON.stringify(model.summary)) as DataSummary,
+    calibration: model.calibration === null ? null : { method: "platt", a: model.calibration.a, b: model.calibration.b },
     parameters: {
       kind: "sufficient-statistics",
       states: s.states,
@@ -170,19 +176,22 @@ function fromEntries(value: unknown, path: string, limit: number): CountTable | 
 export function loadModel(json: unknown): TaggerModel {
   const root = object(json, "(root)");
   if (root.format !== MODEL_FORMAT) throw new ModelFormatError("format", `expected "${MODEL_FORMAT}", got ${JSON.stringify(root.format)}: not a Tagloom tagger model`);
-  if (root.schemaVersion !== MODEL_SCHEMA_VERSION) {
+  if (typeof root.schemaVersion !== "number" || !READABLE_VERSIONS.includes(root.schemaVersion)) {
     throw new ModelFormatError(
       "schemaVersion",
-      `unsupported schema version ${JSON.stringify(root.schemaVersion)}; this version of @tagloom/tagger reads version ${MODEL_SCHEMA_VERSION} only (retrain the model or use a matching release)`,
+      `unsupported schema version ${JSON.stringify(root.schemaVersion)}; this version of @tagloom/tagger reads versions ${READABLE_VERSIONS.join(" and ")} (retrain the model or use a matching release)`,
     );
   }
+  const version = root.schemaVersion;
   const scheme = root.scheme;
   if (scheme !== "iob" && scheme !== "plain") throw new ModelFormatError("scheme", `expected "iob" or "plain", got ${JSON.stringify(scheme)}`);
   const tags = strings(root.tags, "tags");
   if (tags.length === 0 || new Set(tags).size !== tags.length) throw new ModelFormatError("tags", "expected a non-empty list of distinct tags");
   let config: TrainingConfig;
   try {
-    config = resolveTrainingConfig(object(root.config, "config") as Partial<TrainingConfig>);
+    const stored = object(root.config, "config") as Partial<TrainingConfig>;
+    // Version 1 predates calibration: such a model was trained without it.
+    config = resolveTrainingConfig(version === 1 ? { ...stored, calibration: "none" } : stored);
   } catch (error) {
     throw new ModelFormatError("config", (error as Error).message);
   }
@@ -244,5 +253,11 @@ export function loadModel(json: unknown): TaggerModel {
     suffix = createSuffixStatistics(K, integer(sj.maxLength, "parameters.suffix.maxLength"), finite(sj.theta, "parameters.suffix.theta"), nodes);
   }
   const summary = object(root.summary, "summary") as unknown as DataSummary;
-  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary });
+  let calibration: PlattCalibration | null = null;
+  if (version >= 2 && root.calibration !== null) {
+    const c = object(root.calibration, "calibration");
+    if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
+    calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b") };
+  }
+  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration });
 }

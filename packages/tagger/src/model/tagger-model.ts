@@ -6,6 +6,7 @@ import { buildNltkTables, type NltkTables } from "../estimation/nltk-compatible"
 import type { SuffixStatistics } from "../estimation/suffix-model";
 import type { SufficientStatistics } from "../estimation/sufficient-statistics";
 import type { TrainingConfig } from "../estimation/training-config";
+import type { PlattCalibration } from "../estimation/platt";
 import { symbolCount, type Vocabulary } from "../estimation/vocabulary";
 
 /** What the model was trained on (stored with it). */
@@ -40,6 +41,8 @@ export type TaggerModel = {
   readonly nltk: NltkTables | null;
   /** K×K segment starts for context-conditioned emissions (context-emissions.ts), else null. */
   readonly segmentStarts: Uint8Array | null;
+  /** Map from raw chunk marginals to calibrated span confidences, or null (raw marginals). */
+  readonly calibration: PlattCalibration | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -71,6 +74,7 @@ export function assembleModel(parts: {
   statistics: SufficientStatistics;
   suffix: SuffixStatistics | null;
   summary: DataSummary;
+  calibration?: PlattCalibration | null;
 }): TaggerModel {
   const { config, tags, vocabulary, statistics } = parts;
   if (statistics.states !== tags.length) throw new RangeError(`statistics have K=${statistics.states} states for ${tags.length} tags`);
@@ -90,5 +94,5 @@ export function assembleModel(parts: {
   });
   const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
   const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
-  return { ...parts, parameters, constraints, nltk, segmentStarts };
+  return { ...parts, calibration: parts.calibration ?? null, parameters, constraints, nltk, segmentStarts };
 }

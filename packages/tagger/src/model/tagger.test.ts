@@ -35,8 +35,8 @@ describe("trainTagger / tagSentence", () => {
   });
 
   it.each([
-    ["position-free", { prevWord: false, contextEmissions: false }, 1],
-    ["per-step (previous word, context emissions)", { prevWord: true, contextEmissions: true }, 4],
+    ["position-free", { prevWord: false, contextEmissions: false, calibration: "none" as const }, 1],
+    ["per-step (previous word, context emissions)", { prevWord: true, contextEmissions: true, calibration: "none" as const }, 4],
   ])("chunk confidence equals the brute-force probability that exactly that chunk is present (%s)", (_name, config, matrices) => {
     const { model } = trainTagger(tinyDocuments, config);
     const words = ["Mary", "lives", "in", "Rome"];
