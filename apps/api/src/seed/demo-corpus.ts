@@ -1,10 +1,11 @@
 import { createRng } from "@tagloom/tagger";
 
 // Invented supply-agreement snippets for the demo corpus. Every company, person and place name is
-// made up; the sentences are written for this demo.
-const suppliers = ["Corvid Ridge Mills", "Saffron Key Ceramics", "Brannock & Vey Ltd", "Ottermere Textiles", "Quillfeather Paper Co", "Lanthorn Glassworks"];
-const buyers = ["Tallowmere Freight", "Ironbark Outfitters", "Maple Hollow Grocers", "Pellucid Labs", "Wickerbay Furnishings", "Dunmoor Hardware"];
-const places = ["Quillon Harbour", "Brackenfold", "Saltwick Yard", "Esterhaze Valley", "Port Varrow", "Glimmerdale"];
+// made up from syllables (earlier names that turned out to be real places were replaced); the
+// sentences are written for this demo.
+const suppliers = ["Kelvatho Mills", "Brunasque Ceramics", "Tessivar & Morrique Ltd", "Ulventhrap Textiles", "Quorreth Paper Co", "Lanvisk Glassworks"];
+const buyers = ["Tallovine Freight", "Iskarrow Outfitters", "Mabrevel Grocers", "Pelluvant Labs", "Wickenoth Furnishings", "Dunvessa Hardware"];
+const places = ["Quivella Harbour", "Brannafel", "Soltharrow Yard", "Esquivane Valley", "Port Vethrin", "Glimvarrow"];
 const months = ["January", "February", "March", "April", "May", "June", "July", "September", "October", "November"];
 const goods = ["woven cotton bolts", "glazed tiles", "recycled card stock", "hand-blown bottles", "linen tea towels", "kiln-dried oak boards"];
 

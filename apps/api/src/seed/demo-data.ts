@@ -3,7 +3,7 @@ import type { Role } from "@tagloom/contracts";
 // An invented scenario: a small contract-review team at a fictional company. Every name, company
 // and place here is made up.
 export const DEMO_PASSWORD = "demo-password-1";
-export const DEMO_ORGANIZATION = "Larkspur Contract Desk";
+export const DEMO_ORGANIZATION = "Orvalen Contract Desk";
 
 export const demoUsers: { email: string; name: string; role: Role }[] = [
   { email: "admin@demo.tagloom.test", name: "Morgan Vale", role: "admin" },
