@@ -315,8 +315,15 @@ describe("review", () => {
     expect(agreement.body.pairs[0].f1).toBeCloseTo(2 / 3, 12);
     expect(agreement.body.pairs[0]).toMatchObject({ matched: 1, documents: 1 });
     expect(agreement.body.overall.f1).toBeCloseTo(2 / 3, 12);
-    expect(agreement.body.pairs[0].kappa).toBeGreaterThan(0);
-    expect(agreement.body.pairs[0].kappa).toBeLessThan(1);
+    // Cohen's kappa, worked by hand with Cohen (1960), "A Coefficient of Agreement for Nominal
+    // Scales", Educational and Psychological Measurement 20(1), eq. (1): κ = (pₒ − pₑ)/(1 − pₑ).
+    // The 8 tokens "Nobody from Brackenridge Freight answered the letter ." are labelled
+    // Ines: O O B-ORG I-ORG O O B-PLACE O, Jory: O O B-ORG I-ORG O O O O. pₒ = 7/8;
+    // marginals Ines O 5, B-ORG 1, I-ORG 1, B-PLACE 1 and Jory O 6, B-ORG 1, I-ORG 1, so
+    // pₑ = (5·6 + 1·1 + 1·1)/8² = 1/2 and κ = (7/8 − 1/2)/(1/2) = 3/4.
+    expect(agreement.body.pairs[0].tokens).toBe(8);
+    expect(agreement.body.pairs[0].kappa).toBeCloseTo(0.75, 12);
+    expect(agreement.body.overall.kappa).toBeCloseTo(0.75, 12);
 
     // A settled result that cuts a token is refused and nothing changes.
     const bad = await manager.agent.post(settleUrl).send({ spans: [{ start: brack.start, end: brack.end - 2, type: "ORG" }] });

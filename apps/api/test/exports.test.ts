@@ -33,8 +33,8 @@ const source = [
       { start: 46, end: 53, type: "PLACE" },
     ],
   },
-  { title: "Café", split: "test", text: "José Ñandú opened Café Élan in Montreuil-sur-Brume 🙂.", spans: [{ start: 0, end: 10, type: "PARTY" }, { start: 31, end: 50, type: "PLACE" }] },
-  { title: "東京", text: "山田花子は東京の会社で働いています。", spans: [{ start: 0, end: 4, type: "PARTY" }] },
+  { title: "Café", split: "test", text: "José Ñandú opened Café Élun in Pellavine-sur-Brume 🙂.", spans: [{ start: 0, end: 10, type: "PARTY" }, { start: 31, end: 50, type: "PLACE" }] },
+  { title: "霧港", text: "ミラクエは霧港の会社で働いています。", spans: [{ start: 0, end: 4, type: "PARTY" }] },
   { title: "RTL", split: "train", text: "سافرت ليلى إلى مدينة القمر أمس.", spans: [{ start: 6, end: 10, type: "PARTY" }] },
   { title: "Nothing", split: "test", text: "No entities at all here.", spans: [] },
 ];

@@ -59,7 +59,7 @@ describe("upload limits", () => {
 
 describe("plain text", () => {
   it("imports UTF-8 text with exact offsets and refuses invalid UTF-8, empty, oversized and unknown files by name", async () => {
-    const good = "Ada Brightwater signed for Quillmark Ltd.\r\nThe meeting was in Lowmere. Café señor 東京 🙂.";
+    const good = "Ada Brightwater signed for Quillmark Ltd.\r\nThe meeting was in Lowmere. Café señor 霧港 🙂.";
     const invalid = Buffer.concat([Buffer.from("Valid start, then "), Buffer.from([0xc3, 0x28]), Buffer.from(" broken.")]);
     const { response, byName } = await uploadAndWait(manager.agent, admin.orgId, corpusId, [
       { name: "minutes.txt", content: good },

@@ -18,6 +18,12 @@ export type CatalogRoute = {
    * that allowed roles get past the role guard and the others get 403.
    */
   probe?: (f: TenantFixture) => unknown;
+  /**
+   * The exact status an allowed role gets in the role matrix, when it differs from the default
+   * (`get` → 200; a probe → 400; no probe, so an unknown id → 404). A number for every allowed
+   * role, or per role. Exact, so that a 500 behind the role guard fails the matrix.
+   */
+  allowedStatus?: number | Partial<Record<Role, number>>;
 };
 
 const ALL: readonly Role[] = ["admin", "manager", "data_lead", "annotator"];
@@ -38,7 +44,7 @@ export const routeCatalog: CatalogRoute[] = [
     body: () => ({ role: "admin" }),
     probe: () => ({ role: "not-a-role" }),
   },
-  { method: "delete", path: (f) => `/orgs/${f.orgId}/members/${f.memberUserId}`, roles: ADMIN, probe: () => undefined },
+  { method: "delete", path: (f) => `/orgs/${f.orgId}/members/${f.memberUserId}`, roles: ADMIN },
   { method: "get", path: (f) => `/orgs/${f.orgId}/invitations`, roles: ADMIN },
   {
     method: "post",
@@ -63,7 +69,8 @@ export const routeCatalog: CatalogRoute[] = [
   { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}`, roles: MANAGER },
   { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches/${f.ids.batchId}/agreement`, roles: MANAGER },
   { method: "get", path: (f) => `/orgs/${f.orgId}/queue`, roles: ALL },
-  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}`, roles: ALL },
+  // Only the assignee and managers see an assignment; for anyone else it does not exist.
+  { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}`, roles: ALL, allowedStatus: { data_lead: 404 } },
   {
     method: "put",
     path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/assignments/${f.ids.assignmentId}`,
@@ -133,6 +140,14 @@ function corpusRoutes(): CatalogRoute[] {
     { method: "get", path: (f) => `${corpus(f)}/exports?format=jsonl&split=all`, roles: EXPORTERS },
     { method: "get", path: (f) => `${corpus(f)}/exports?format=conll&split=train`, roles: EXPORTERS },
   ];
+}
+
+/** The status the role matrix expects for an allowed role (see `CatalogRoute.allowedStatus`). */
+export function allowedStatusFor(route: CatalogRoute, role: Role): number {
+  const declared = typeof route.allowedStatus === "number" ? route.allowedStatus : route.allowedStatus?.[role];
+  if (declared !== undefined) return declared;
+  if (route.method === "get") return 200;
+  return route.probe ? 400 : 404;
 }
 
 /** For routes whose probe must not act on the fixture's real object. */
