@@ -1,10 +1,10 @@
+import { TypeKey } from "@/components/spans";
 import { type EntityType, nextEntityTypeColor } from "@tagloom/contracts";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Card, EmptyState, Notice, Spinner } from "@/components/ui/card";
 import { Dialog } from "@/components/ui/dialog";
 import { useToast } from "@/components/ui/toaster";
-import { readableTextColor } from "@/lib/colors";
 import { formatCount } from "@/lib/format";
 import { useCreateEntityType } from "../api/create-entity-type";
 import { useDeleteEntityType } from "../api/delete-entity-type";
@@ -16,11 +16,7 @@ import { GuidelineText } from "./guideline-text";
 
 /** A type's name on its colour, as spans show it. */
 export function TypeChip({ type }: { type: Pick<EntityType, "name" | "color"> }) {
-  return (
-    <span className="inline-flex items-center rounded px-2 py-0.5 font-mono text-xs font-semibold" style={{ background: type.color, color: readableTextColor(type.color) }}>
-      {type.name}
-    </span>
-  );
+  return <TypeKey type={type} />;
 }
 
 /**

@@ -32,7 +32,6 @@ function majorityKey(d: Disagreement): string {
  * or editing, then the settled result is accepted as gold.
  */
 export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
-  const colors = useMemo(() => new Map(view.entityTypes.map((t) => [t.name, t.color])), [view.entityTypes]);
   const finished = useMemo(() => view.assignments.filter((a) => a.state === "submitted"), [view.assignments]);
   const names = new Map(view.assignments.map((a) => [a.id, a.annotator.name]));
   const comparison = useMemo(() => compareAnnotations(finished.map((a) => ({ key: a.id, spans: a.spans }))), [finished]);
@@ -115,7 +114,7 @@ export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
             <ul className="space-y-2 text-sm">
               {finished[0]!.spans.map((s) => (
                 <li key={spanKey(s)}>
-                  <SpanContext text={text} start={s.start} end={s.end} spans={[s]} colors={colors} pad={40} />
+                  <SpanContext text={text} start={s.start} end={s.end} spans={[s]} types={view.entityTypes} pad={40} />
                 </li>
               ))}
             </ul>
@@ -139,7 +138,7 @@ export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
                 index={i}
                 d={d}
                 text={text}
-                colors={colors}
+                types={view.entityTypes}
                 names={names}
                 typeNames={view.entityTypes.map((t) => t.name)}
                 choice={choices.get(d.id)}
@@ -174,7 +173,7 @@ function DisagreementItem({
   index,
   d,
   text,
-  colors,
+  types,
   names,
   typeNames,
   choice,
@@ -183,7 +182,7 @@ function DisagreementItem({
   index: number;
   d: Disagreement;
   text: string;
-  colors: ReadonlyMap<string, string>;
+  types: ReviewDocumentView["entityTypes"];
   names: ReadonlyMap<string, string>;
   typeNames: string[];
   choice: Choice | undefined;
@@ -202,7 +201,7 @@ function DisagreementItem({
         {index + 1}. Characters {d.start}–{d.end}
       </p>
       <p className="mt-1 text-sm">
-        <SpanContext text={text} start={d.start} end={d.end} spans={[]} colors={colors} />
+        <SpanContext text={text} start={d.start} end={d.end} spans={[]} types={types} />
       </p>
       <fieldset className="mt-2 space-y-1">
         <legend className="sr-only">Settle disagreement {index + 1}</legend>
@@ -214,7 +213,7 @@ function DisagreementItem({
               {v.spans.length ? (
                 v.spans.map((s) => (
                   <span key={spanKey(s)} className="mr-2">
-                    <SpanContext text={text} start={s.start} end={s.end} spans={[s]} colors={colors} pad={0} />
+                    <SpanContext text={text} start={s.start} end={s.end} spans={[s]} types={types} pad={0} />
                   </span>
                 ))
               ) : (
