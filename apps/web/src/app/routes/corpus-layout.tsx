@@ -1,4 +1,4 @@
-import { can } from "@tagloom/contracts";
+import { can, countOf } from "@tagloom/contracts";
 import { Link, NavLink, Outlet, useParams } from "react-router";
 import { Notice, PageHeader, Spinner } from "@/components/ui/card";
 import { paths } from "@/config/paths";
@@ -44,9 +44,9 @@ export function CorpusLayoutRoute() {
         subtitle={
           <span data-testid="corpus-counts">
             {c.description ? `${c.description} · ` : ""}
-            {formatCount(c.documentCount)} documents ({formatCount(c.splits.train)} train, {formatCount(c.splits.test)} test) · {formatCount(c.statuses.gold)} gold ·{" "}
-            {formatCount(c.entityTypeCount)} entity types
-            {c.pendingFiles > 0 ? ` · ${formatCount(c.pendingFiles)} files processing` : ""}
+            {countOf(c.documentCount, "document")} ({formatCount(c.splits.train)} train, {formatCount(c.splits.test)} test) · {formatCount(c.statuses.gold)} gold ·{" "}
+            {countOf(c.entityTypeCount, "entity type")}
+            {c.pendingFiles > 0 ? ` · ${countOf(c.pendingFiles, "file")} being read` : ""}
           </span>
         }
         actions={can(org.role, "exportData") ? <ExportButtons orgId={orgId} corpusId={corpusId} goldCount={c.statuses.gold} /> : null}

@@ -1,4 +1,4 @@
-import { can } from "@tagloom/contracts";
+import { annotationStatusLabels, can, splitLabels } from "@tagloom/contracts";
 import { useState } from "react";
 import { Link, useNavigate, useParams } from "react-router";
 import { Button } from "@/components/ui/button";
@@ -12,7 +12,6 @@ import { TypeChip } from "@/features/corpora/components/entity-schema-editor";
 import { useDeleteDocument } from "@/features/documents/api/delete-document";
 import { useDocument } from "@/features/documents/api/get-document";
 import { DocumentText } from "@/features/documents/components/document-text";
-import { splitLabels, statusLabels } from "@/features/documents/components/labels";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { formatCount } from "@/lib/format";
 import { NotFoundRoute } from "./not-found";
@@ -43,7 +42,7 @@ export function DocumentRoute() {
       </p>
       <PageHeader
         title={d.title}
-        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${statusLabels[d.annotationStatus]}`}
+        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${annotationStatusLabels[d.annotationStatus]}`}
         actions={
           can(org.role, "manageCorpora") ? (
             <Button variant="ghost" className="text-rust-500" onClick={() => setConfirming(true)}>

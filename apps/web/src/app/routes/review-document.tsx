@@ -1,3 +1,4 @@
+import { countOf } from "@tagloom/contracts";
 import { Link, useNavigate, useParams } from "react-router";
 import { Notice, PageHeader, Spinner } from "@/components/ui/card";
 import { useToast } from "@/components/ui/toaster";
@@ -22,7 +23,7 @@ export function ReviewDocumentRoute() {
       <Link to={paths.org.batch.build(id, corpusId, batchId)} className="text-xs text-ink-500 hover:underline">
         ← Batch {v.batch.name}
       </Link>
-      <PageHeader title={`Review: ${v.document.title}`} subtitle={v.gold ? `This document already has gold (${v.gold.length} spans); accepting replaces it.` : undefined} />
+      <PageHeader title={`Review: ${v.document.title}`} subtitle={v.gold ? `This document already has gold (${countOf(v.gold.length, "span")}); accepting replaces it.` : undefined} />
       <ReviewPanel
         key={v.assignments.map((a) => `${a.id}:${a.state}`).join(",")}
         orgId={id}
