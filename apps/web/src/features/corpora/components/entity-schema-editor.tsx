@@ -12,7 +12,7 @@ import { useEntityTypeUsage } from "../api/get-entity-type-usage";
 import { useEntityTypes } from "../api/get-entity-types";
 import { useUpdateEntityType } from "../api/update-entity-type";
 import { EntityTypeForm } from "./entity-type-form";
-import { GuidelineText } from "./guideline-text";
+import { GuidelineText } from "@/components/markdown/guideline-text";
 
 /** A type's name on its colour, as spans show it. */
 export function TypeChip({ type }: { type: Pick<EntityType, "name" | "color"> }) {
