@@ -131,7 +131,10 @@ export const abilities = {
   manageMembers: ["admin"],
   viewAudit: ["admin"],
   manageBilling: ["admin"],
+  manageOrganization: ["admin"],
   manageCorpora: ["admin", "manager"],
+  /** A corpus's documents, their gold spans and its uploads; annotators see only their own assignments. */
+  viewCorpusData: ["admin", "manager", "data_lead"],
   manageBatches: ["admin", "manager"],
   review: ["admin", "manager"],
   annotate: ["admin", "manager", "data_lead", "annotator"],

@@ -23,9 +23,16 @@ export function AssignmentRoute() {
       orgId={org.organizationId}
       view={assignment.data}
       backLink={
-        <Link to={paths.org.queue.build(org.organizationId)} className="hover:underline">
-          ← My queue
-        </Link>
+        // Someone else's work, opened read-only from Review, goes back to that review.
+        assignment.data.annotator.userId !== org.userId ? (
+          <Link to={paths.org.reviewDocument.build(org.organizationId, corpusId, assignment.data.batch.id, assignment.data.document.id)} className="hover:underline">
+            ← Review
+          </Link>
+        ) : (
+          <Link to={paths.org.queue.build(org.organizationId)} className="hover:underline">
+            ← My queue
+          </Link>
+        )
       }
       afterSubmit={<NextLink orgId={org.organizationId} currentId={assignment.data.id} />}
     />

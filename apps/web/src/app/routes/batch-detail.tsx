@@ -7,9 +7,18 @@ import { AgreementView } from "@/features/batches/components/agreement-view";
 import { AnnotatorProgress, BatchDocuments } from "@/features/batches/components/batch-progress";
 import { ProgressBar } from "@/features/batches/components/progress-bar";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** A batch: overall progress, progress per annotator, agreement, and its documents to review. */
 export function BatchDetailRoute() {
+  return (
+    <RequireAbility ability="manageBatches" what="A batch's progress is for managers.">
+      <BatchDetailScreen />
+    </RequireAbility>
+  );
+}
+
+function BatchDetailScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const { corpusId = "", batchId = "" } = useParams();

@@ -6,11 +6,20 @@ import { useBatchCorpora } from "@/features/batches/api/get-batch-corpora";
 import { BatchForm } from "@/features/batches/components/batch-form";
 import { useMembers } from "@/features/members/api/members";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** A new batch; `?corpus=&documents=a,b` carries a selection from the Documents table. */
 export function BatchNewRoute() {
+  return (
+    <RequireAbility ability="manageBatches" what="Making batches is for managers.">
+      <BatchNewScreen />
+    </RequireAbility>
+  );
+}
+
+function BatchNewScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const [params] = useSearchParams();

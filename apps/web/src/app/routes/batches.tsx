@@ -6,9 +6,18 @@ import { useBatchCorpora } from "@/features/batches/api/get-batch-corpora";
 import { useBatches } from "@/features/batches/api/get-batches";
 import { BatchesTable } from "@/features/batches/components/batches-table";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Every batch of the organization, newest first. */
 export function BatchesRoute() {
+  return (
+    <RequireAbility ability="manageBatches" what="Batches are for managers.">
+      <BatchesScreen />
+    </RequireAbility>
+  );
+}
+
+function BatchesScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const batches = useBatches(id);

@@ -21,10 +21,12 @@ export function CorpusLayoutRoute() {
   }
   const c = corpus.data;
   const orgId = org.organizationId;
+  // Annotators see a corpus's schema and guidelines only, never its documents, gold or uploads.
+  const data = can(org.role, "viewCorpusData");
   const tabs = [
-    { label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true },
-    { label: "Entity schema", to: paths.org.corpusSchema.build(orgId, corpusId) },
-    { label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) },
+    ...(data ? [{ label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true }] : []),
+    { label: data ? "Entity schema" : "Entity schema and guidelines", to: paths.org.corpusSchema.build(orgId, corpusId) },
+    ...(data ? [{ label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
   ];
   return (

@@ -15,9 +15,18 @@ import { DocumentText } from "@/features/documents/components/document-text";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { formatCount } from "@/lib/format";
 import { NotFoundRoute } from "./not-found";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** One document, read-only: its text with gold spans in their types' colours, and its suggestions. */
 export function DocumentRoute() {
+  return (
+    <RequireAbility ability="viewCorpusData" what="A document with its gold spans is for managers and data leads; annotators see the documents of their own assignments.">
+      <DocumentScreen />
+    </RequireAbility>
+  );
+}
+
+function DocumentScreen() {
   const org = useCurrentOrg();
   const { corpusId = "", documentId = "" } = useParams();
   const orgId = org.organizationId;

@@ -6,9 +6,18 @@ import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useReviewDocument } from "@/features/review/api/get-review-document";
 import { ReviewPanel } from "@/features/review/components/review-panel";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Review of one document of a batch. */
 export function ReviewDocumentRoute() {
+  return (
+    <RequireAbility ability="review" what="Review is for managers.">
+      <ReviewDocumentScreen />
+    </RequireAbility>
+  );
+}
+
+function ReviewDocumentScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const { corpusId = "", batchId = "", documentId = "" } = useParams();
@@ -28,7 +37,7 @@ export function ReviewDocumentRoute() {
         key={v.assignments.map((a) => `${a.id}:${a.state}`).join(",")}
         orgId={id}
         view={v}
-        openLink={(assignmentId) => paths.org.assignment.build(id, corpusId, assignmentId)}
+        openLink={(assignmentId) => `${paths.org.assignment.build(id, corpusId, assignmentId)}?from=review`}
         onDone={(what) => {
           toast.show(what, "success");
           navigate(paths.org.batch.build(id, corpusId, batchId));

@@ -3,9 +3,18 @@ import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useReviewList } from "@/features/review/api/get-review-list";
 import { ReviewList } from "@/features/review/components/review-list";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Documents with submitted work waiting for a reviewer. */
 export function ReviewRoute() {
+  return (
+    <RequireAbility ability="review" what="Review is for managers.">
+      <ReviewScreen />
+    </RequireAbility>
+  );
+}
+
+function ReviewScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const list = useReviewList(id);
