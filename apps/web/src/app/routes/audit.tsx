@@ -3,7 +3,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "
 import { useState } from "react";
 import { DataTable } from "@/components/ui/data-table";
 import { Button } from "@/components/ui/button";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { Field, Input, Select } from "@/components/ui/field";
 import { type AuditFilters, useAudit } from "@/features/audit/api/get-audit";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
@@ -56,7 +56,7 @@ function AuditScreen() {
         <Field label="To (inclusive)">{(id) => <Input id={id} type="date" value={to} onChange={(e) => setTo(e.target.value)} />}</Field>
       </div>
       {audit.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : audit.isError ? (
         <Notice tone="error">{audit.error.message}</Notice>
       ) : events.length === 0 ? (

@@ -1,5 +1,5 @@
 import { useNavigate, useSearchParams } from "react-router";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
 import { useBatchCorpora } from "@/features/batches/api/get-batch-corpora";
@@ -34,7 +34,7 @@ function BatchNewScreen() {
     <div className="max-w-5xl">
       <PageHeader title="New batch" subtitle="Give documents to annotators. k ≥ 2 annotators per document lets you measure agreement and settle conflicts." />
       {corpora.isPending || members.isPending ? (
-        <Spinner />
+        <Skeleton />
       ) : corpora.isError ? (
         <Notice tone="error">{corpora.error.message}</Notice>
       ) : members.isError ? (

@@ -1,6 +1,6 @@
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useBatchCorpora } from "@/features/batches/api/get-batch-corpora";
 import { useBatches } from "@/features/batches/api/get-batches";
@@ -36,7 +36,7 @@ function BatchesScreen() {
         }
       />
       {batches.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : batches.isError ? (
         <Notice tone="error">{batches.error.message}</Notice>
       ) : all.length ? (

@@ -1,6 +1,6 @@
 import { can, countOf } from "@tagloom/contracts";
 import { Link, NavLink, Outlet, useParams } from "react-router";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCorpus } from "@/features/corpora/api/get-corpus";
 import { ExportButtons } from "@/features/exports/components/export-buttons";
@@ -14,7 +14,7 @@ export function CorpusLayoutRoute() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const corpus = useCorpus(org.organizationId, corpusId);
-  if (corpus.isPending) return <Spinner />;
+  if (corpus.isPending) return <Skeleton />;
   if (corpus.isError) {
     if ("status" in corpus.error && corpus.error.status === 404) return <NotFoundRoute />;
     return <Notice tone="error">{corpus.error.message}</Notice>;

@@ -2,7 +2,7 @@ import { annotationStatusLabels, can, splitLabels } from "@tagloom/contracts";
 import { useState } from "react";
 import { Link, useNavigate, useParams } from "react-router";
 import { Button } from "@/components/ui/button";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { Dialog } from "@/components/ui/dialog";
 import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
@@ -37,7 +37,7 @@ function DocumentScreen() {
   const navigate = useNavigate();
   const toast = useToast();
   const [confirming, setConfirming] = useState(false);
-  if (doc.isPending || types.isPending) return <Spinner />;
+  if (doc.isPending || types.isPending) return <Skeleton />;
   if (doc.isError) return "status" in doc.error && doc.error.status === 404 ? <NotFoundRoute /> : <Notice tone="error">{doc.error.message}</Notice>;
   if (types.isError) return <Notice tone="error">{types.error.message}</Notice>;
   const d = doc.data;

@@ -1,6 +1,6 @@
 import { countOf } from "@tagloom/contracts";
 import { Link, useNavigate, useParams } from "react-router";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
@@ -24,7 +24,7 @@ function ReviewDocumentScreen() {
   const review = useReviewDocument(id, corpusId, batchId, documentId);
   const navigate = useNavigate();
   const toast = useToast();
-  if (review.isPending) return <Spinner />;
+  if (review.isPending) return <Skeleton />;
   if (review.isError) return <Notice tone="error">{review.error.message}</Notice>;
   const v = review.data;
   return (

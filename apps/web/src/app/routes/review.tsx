@@ -1,4 +1,4 @@
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useReviewList } from "@/features/review/api/get-review-list";
@@ -22,7 +22,7 @@ function ReviewScreen() {
     <div className="max-w-6xl space-y-6">
       <PageHeader title="Review" subtitle="Submitted work to accept as gold, settle between annotators, or send back with a comment." />
       {list.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : list.isError ? (
         <Notice tone="error">{list.error.message}</Notice>
       ) : list.data.items.length ? (

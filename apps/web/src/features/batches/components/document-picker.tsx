@@ -1,7 +1,7 @@
 import { annotationStatusLabels, annotationStatusStates, annotationStatuses } from "@tagloom/contracts";
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { Input, Select } from "@/components/ui/field";
 import { StateBadge } from "@/components/ui/state-badge";
 import { type CandidateFilter, useBatchCandidates } from "../api/get-batch-candidates";
@@ -81,7 +81,7 @@ export function DocumentPicker({
         ) : null}
       </div>
       {docs.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : docs.isError ? (
         <Notice tone="error">{docs.error.message}</Notice>
       ) : rows.length ? (

@@ -2,7 +2,7 @@ import { TypeKey } from "@/components/spans";
 import { type EntityType, nextEntityTypeColor } from "@tagloom/contracts";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Card, EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { Card, EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { Dialog } from "@/components/ui/dialog";
 import { useToast } from "@/components/ui/toaster";
 import { formatCount } from "@/lib/format";
@@ -32,7 +32,7 @@ export function EntitySchemaEditor({ orgId, corpusId, canManage }: { orgId: stri
   const [deleting, setDeleting] = useState<EntityType | null>(null);
   const [formKey, setFormKey] = useState(0);
 
-  if (types.isPending) return <Spinner />;
+  if (types.isPending) return <Skeleton />;
   if (types.isError) return <Notice tone="error">{types.error.message}</Notice>;
   const list = types.data;
 
@@ -143,7 +143,7 @@ function DeleteTypeDialog({ orgId, corpusId, type, onClose }: { orgId: string; c
       }}
     >
       {usage.isPending ? (
-        <Spinner label="Counting its spans" />
+        <Skeleton label="Counting its spans" />
       ) : usage.isError ? (
         <Notice tone="error">{usage.error.message}</Notice>
       ) : (

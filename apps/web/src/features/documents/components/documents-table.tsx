@@ -4,7 +4,7 @@ import { type ReactNode, useEffect, useState } from "react";
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
-import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { Field, Input, Select } from "@/components/ui/field";
 import { StateBadge } from "@/components/ui/state-badge";
 import { useToast } from "@/components/ui/toaster";
@@ -216,7 +216,7 @@ export function DocumentsTable({
       ) : null}
 
       {docs.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : docs.isError ? (
         <Notice tone="error">{docs.error.message}</Notice>
       ) : docs.data.items.length === 0 ? (

@@ -3,7 +3,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
-import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { StateBadge } from "@/components/ui/state-badge";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/dates";
@@ -61,7 +61,7 @@ export function FilesTable({ orgId, corpusId }: { orgId: string; corpusId: strin
         ))}
       </div>
       {files.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : files.isError ? (
         <Notice tone="error">{files.error.message}</Notice>
       ) : files.data.items.length === 0 ? (

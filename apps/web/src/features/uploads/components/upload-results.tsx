@@ -1,5 +1,5 @@
 import { type UploadFile, countOf, fileStateStates } from "@tagloom/contracts";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { formatBytes, formatCount } from "@/lib/format";
 import { useUpload } from "../api/get-upload";
 import { FileProblems } from "./file-problems";
@@ -45,7 +45,7 @@ export function FileResultList({ files, localRefusals = [] }: { files: UploadFil
 /** The results of one upload, refreshed until every file is ready or failed. */
 export function UploadResults({ orgId, corpusId, uploadId }: { orgId: string; corpusId: string; uploadId: string }) {
   const upload = useUpload(orgId, corpusId, uploadId);
-  if (upload.isPending) return <Spinner />;
+  if (upload.isPending) return <Skeleton />;
   if (upload.isError) return <Notice tone="error">{upload.error.message}</Notice>;
   const { counts } = upload.data.upload;
   const pending = counts.queued + counts.processing;
