@@ -94,6 +94,16 @@ describe("sign-in and sign-out", () => {
     const me = await agent.get("/api/me");
     expect(me.status).toBe(401);
     expect(me.body.error.code).toBe("unauthenticated");
+    // The session route says "nobody" with a 200, so a signed-out page load fails no request.
+    expect((await agent.get("/api/auth/session")).body).toEqual({ me: null });
+  });
+
+  it("answers the session route with the signed-in user and memberships, the same as /api/me", async () => {
+    const { agent } = await signUpFounder(server);
+    const session = await agent.get("/api/auth/session");
+    expect(session.status).toBe(200);
+    expect(session.body.me).toEqual((await agent.get("/api/me")).body);
+    expect(session.body.me.memberships).toHaveLength(1);
   });
 
   it("records sign-in in the organization's audit log", async () => {

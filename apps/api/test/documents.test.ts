@@ -9,6 +9,8 @@ let server: TestServer;
 let admin: SignedIn;
 let manager: SignedIn;
 let annotator: SignedIn;
+/** A data lead reads documents; annotators may not (they see documents only through their assignments). */
+let reader: SignedIn;
 let corpusId: string;
 let typeIds: Record<string, string>;
 
@@ -20,6 +22,7 @@ beforeAll(async () => {
   admin = await signUpFounder(server, { organizationName: "Documents Org" });
   manager = await addSignedInMember(server, admin.orgId, "manager");
   annotator = await addSignedInMember(server, admin.orgId, "annotator");
+  reader = await addSignedInMember(server, admin.orgId, "data_lead");
   ({ corpusId, typeIds } = await createCorpusWithTypes(manager.agent, admin.orgId, "Field notes", ["PARTY", "PLACE"]));
   // 12 gold documents of growing length, each naming one animal, plus 3 plain text files.
   const lines = animals.map((animal, i) =>
@@ -49,7 +52,7 @@ async function listAll(query: string, limit = 4): Promise<DocumentListItem[]> {
   const out: DocumentListItem[] = [];
   let cursor: string | null = null;
   for (let guard = 0; guard < 100; guard++) {
-    const res: { status: number; body: { items: DocumentListItem[]; nextCursor: string | null } } = await annotator.agent.get(
+    const res: { status: number; body: { items: DocumentListItem[]; nextCursor: string | null } } = await reader.agent.get(
       `${docsPath()}?${query}&limit=${limit}${cursor ? `&cursor=${encodeURIComponent(cursor)}` : ""}`,
     );
     expect(res.status).toBe(200);
@@ -88,25 +91,36 @@ describe("documents table", () => {
   });
 
   it("refuses bad query values", async () => {
-    expect((await annotator.agent.get(`${docsPath()}?sort=size`)).status).toBe(400);
-    expect((await annotator.agent.get(`${docsPath()}?status=done`)).status).toBe(400);
-    expect((await annotator.agent.get(`${docsPath()}?sort=tokens&cursor=${Buffer.from('["x","00000000-0000-4000-8000-000000000000"]').toString("base64url")}`)).status).toBe(400);
+    expect((await reader.agent.get(`${docsPath()}?sort=size`)).status).toBe(400);
+    expect((await reader.agent.get(`${docsPath()}?status=done`)).status).toBe(400);
+    expect((await reader.agent.get(`${docsPath()}?sort=tokens&cursor=${Buffer.from('["x","00000000-0000-4000-8000-000000000000"]').toString("base64url")}`)).status).toBe(400);
   });
 
   it("shows a document with its text, tokens, gold spans and suggestions", async () => {
     const [heron] = await listAll("q=heron&status=gold");
-    const res = await annotator.agent.get(`${docsPath()}/${heron!.id}`);
+    const res = await reader.agent.get(`${docsPath()}/${heron!.id}`);
     const doc = res.body as DocumentDetail;
     expect(doc.gold.map((s) => doc.text.slice(s.start, s.end))).toEqual(["Ada Brightwater", "Lowmere"]);
     expect(doc.tokens.starts).toHaveLength(doc.tokenCount);
     const [river] = await listAll("q=kingfisher");
-    expect((await annotator.agent.get(`${docsPath()}/${river!.id}`)).body.suggestions).toEqual([]);
+    expect((await reader.agent.get(`${docsPath()}/${river!.id}`)).body.suggestions).toEqual([]);
+  });
+
+  it("refuses annotators the documents, their gold and the uploads (403), changing nothing", async () => {
+    const [heron] = await listAll("q=heron&status=gold");
+    for (const path of [docsPath(), `${docsPath()}/${heron!.id}`, `/api/orgs/${admin.orgId}/corpora/${corpusId}/uploads`, `/api/orgs/${admin.orgId}/corpora/${corpusId}/files`]) {
+      const res = await annotator.agent.get(path);
+      expect(res.status, path).toBe(403);
+      expect(res.body.error.code).toBe("forbidden");
+      expect(JSON.stringify(res.body)).not.toContain("Brightwater");
+    }
+    expect((await reader.agent.get(`${docsPath()}/${heron!.id}`)).status).toBe(200);
   });
 
   it("answers 404 for a document under another corpus of the organization", async () => {
     const [any] = await listAll("status=gold");
     const { corpusId: otherCorpus } = await createCorpusWithTypes(manager.agent, admin.orgId, "Other notes");
-    const res = await annotator.agent.get(`/api/orgs/${admin.orgId}/corpora/${otherCorpus}/documents/${any!.id}`);
+    const res = await reader.agent.get(`/api/orgs/${admin.orgId}/corpora/${otherCorpus}/documents/${any!.id}`);
     expect(res.status).toBe(404);
   });
 });
@@ -191,16 +205,16 @@ describe("deleting", () => {
     expect(removedFrom).toEqual([typeIds.PLACE]);
     const gold = await listAll("status=gold");
     for (const d of gold) {
-      const doc = (await annotator.agent.get(`${docsPath()}/${d.id}`)).body as DocumentDetail;
+      const doc = (await reader.agent.get(`${docsPath()}/${d.id}`)).body as DocumentDetail;
       expect(doc.gold.map((s) => s.type)).toEqual(["PARTY"]);
     }
     const [hint] = await listAll("q=again");
-    expect((await annotator.agent.get(`${docsPath()}/${hint!.id}`)).body.suggestions).toEqual([]);
+    expect((await reader.agent.get(`${docsPath()}/${hint!.id}`)).body.suggestions).toEqual([]);
   });
 
   it("renaming a type keeps its spans", async () => {
     await manager.agent.patch(`/api/orgs/${admin.orgId}/corpora/${corpusId}/entity-types/${typeIds.PARTY}`).send({ name: "PERSON" });
     const [d] = await listAll("q=otter");
-    expect((await annotator.agent.get(`${docsPath()}/${d!.id}`)).body.gold).toEqual([{ start: 0, end: 15, type: "PERSON" }]);
+    expect((await reader.agent.get(`${docsPath()}/${d!.id}`)).body.gold).toEqual([{ start: 0, end: 15, type: "PERSON" }]);
   });
 });

@@ -88,12 +88,12 @@ describe("corpora, uploads and exports in the browser", () => {
     await page.getByText("8 files chosen").waitFor();
     await page.getByRole("button", { name: "Upload 8 files" }).click();
     const results = page.getByRole("region", { name: "Upload results" });
-    await results.getByText("All files processed: 5 ready, 3 refused.").waitFor({ timeout: 60_000 });
+    await results.getByText("All files read: 5 imported, 3 refused.").waitFor({ timeout: 60_000 });
     await results.getByText(/latin1\.txt is not valid UTF-8: the bytes at offset 3 \(0xE9\)/).waitFor();
     await results.getByText(/bad\.jsonl has 1 problem on 1 line, first on line 3: spans\[0\] \[0, 99\) is outside the text/).waitFor();
     await results.getByText(/locked\.pdf is encrypted with a password/).waitFor();
     // The Files list shows the same states.
-    await page.getByRole("tab", { name: /Failed \(3\)/ }).waitFor();
+    await page.getByRole("tab", { name: /Refused \(3\)/ }).waitFor();
 
     // The Documents table: 7 documents (2 from gold.jsonl, 1 each from the others); find one by a word.
     await page.getByRole("navigation", { name: "Corpus" }).getByRole("link", { name: "Documents" }).click();

@@ -58,6 +58,8 @@ export const verifyEmailInputSchema = z.object({ token: z.string().min(10).max(2
 export type Membership = { organizationId: string; organizationName: string; role: Role };
 export type CurrentUser = { id: string; email: string; name: string; emailVerified: boolean };
 export type Me = { user: CurrentUser; memberships: Membership[] };
+/** GET /api/auth/session: the signed-in user, or null (always 200). */
+export type SessionView = { me: Me | null };
 
 export const createOrganizationInputSchema = z.object({ name: organizationNameSchema });
 export const renameOrganizationInputSchema = z.object({ name: organizationNameSchema });
@@ -131,7 +133,10 @@ export const abilities = {
   manageMembers: ["admin"],
   viewAudit: ["admin"],
   manageBilling: ["admin"],
+  manageOrganization: ["admin"],
   manageCorpora: ["admin", "manager"],
+  /** A corpus's documents, their gold spans and its uploads; annotators see only their own assignments. */
+  viewCorpusData: ["admin", "manager", "data_lead"],
   manageBatches: ["admin", "manager"],
   review: ["admin", "manager"],
   annotate: ["admin", "manager", "data_lead", "annotator"],

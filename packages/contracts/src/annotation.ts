@@ -7,15 +7,6 @@ export const assignmentStates = ["open", "in_progress", "submitted", "accepted",
 export const assignmentStateSchema = z.enum(assignmentStates);
 export type AssignmentState = z.infer<typeof assignmentStateSchema>;
 
-/** Plain names of the assignment states for screens. */
-export const assignmentStateLabels: Record<AssignmentState, string> = {
-  open: "Not started",
-  in_progress: "In progress",
-  submitted: "Submitted",
-  accepted: "Accepted",
-  returned: "Sent back",
-};
-
 /** States in which the annotator may still change the spans. */
 export const editableAssignmentStates: readonly AssignmentState[] = ["open", "in_progress", "returned"];
 

@@ -69,6 +69,13 @@ export function authRouter(limiter: RequestHandler): Router {
     res.status(202).json({ ok: true });
   });
 
+  // Whether anyone is signed in, answered 200 either way: the web app asks on every page load, and
+  // a signed-out visitor is not an error (a 401 would be logged by the browser on the sign-in page).
+  r.get("/auth/session", async (req, res) => {
+    const me = req.auth ? await getMe(req.auth.userId) : null;
+    res.json({ me: me ?? null });
+  });
+
   r.get("/me", async (req, res) => {
     if (!req.auth) throw new UnauthorizedError();
     const me = await getMe(req.auth.userId);

@@ -1,12 +1,12 @@
 import { documentListQuerySchema, setSplitInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
 import { parseOrThrow } from "@/errors";
-import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
+import { actorOf, allow, memberOf, viewCorpusData } from "@/orgs/org-access";
 import { deleteDocumentForGood, getDocumentDetail, getDocumentsPage, setDocumentSplit } from "./documents.service";
 
 export const documentsRouter = Router({ mergeParams: true });
 
-documentsRouter.get("/corpora/:corpusId/documents", anyMember, async (req, res) => {
+documentsRouter.get("/corpora/:corpusId/documents", viewCorpusData, async (req, res) => {
   const query = parseOrThrow(documentListQuerySchema, req.query, "query");
   res.json(await getDocumentsPage(memberOf(req).organizationId, String(req.params.corpusId), query));
 });
@@ -16,7 +16,7 @@ documentsRouter.post("/corpora/:corpusId/documents/split", allow("manager"), asy
   res.json(await setDocumentSplit(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 
-documentsRouter.get("/corpora/:corpusId/documents/:documentId", anyMember, async (req, res) => {
+documentsRouter.get("/corpora/:corpusId/documents/:documentId", viewCorpusData, async (req, res) => {
   res.json(await getDocumentDetail(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.documentId)));
 });
 

@@ -32,6 +32,12 @@ export function allow(...roles: Role[]): RequestHandler {
 /** Every role may use the route (still members only). */
 export const anyMember = allow("manager", "data_lead", "annotator");
 
+/**
+ * A corpus's documents, gold spans and uploads: not annotators, who see documents only through
+ * their own assignments (others' gold could bias their work). Matches `can(role, "viewCorpusData")`.
+ */
+export const viewCorpusData = allow("manager", "data_lead");
+
 /** The member behind an org route, for services and the audit log. */
 export function memberOf(req: Request): NonNullable<Request["member"]> {
   if (!req.member) throw new UnauthorizedError();

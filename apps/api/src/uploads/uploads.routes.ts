@@ -3,7 +3,7 @@ import { type RequestHandler, Router } from "express";
 import multer from "multer";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
 import { PayloadTooLargeError, ValidationError, parseOrThrow } from "@/errors";
-import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
+import { actorOf, allow, anyMember, memberOf, viewCorpusData } from "@/orgs/org-access";
 import { getUploadLimits } from "./upload-limits";
 import { type ReceivedFile, boundedMemoryStorage, formatBytes } from "./upload-storage";
 import { getFilesPage, getUploadResult, getUploadsPage, receiveUpload } from "./uploads.service";
@@ -60,16 +60,16 @@ uploadsRouter.post("/corpora/:corpusId/uploads", allow("manager"), corpusIsWrita
   res.status(202).json(result);
 });
 
-uploadsRouter.get("/corpora/:corpusId/uploads", anyMember, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads", viewCorpusData, async (req, res) => {
   const page = parseOrThrow(pageQuerySchema, req.query, "query");
   res.json(await getUploadsPage(memberOf(req).organizationId, String(req.params.corpusId), page));
 });
 
-uploadsRouter.get("/corpora/:corpusId/uploads/:uploadId", anyMember, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads/:uploadId", viewCorpusData, async (req, res) => {
   res.json(await getUploadResult(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.uploadId)));
 });
 
-uploadsRouter.get("/corpora/:corpusId/files", anyMember, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/files", viewCorpusData, async (req, res) => {
   const query = parseOrThrow(fileListQuerySchema, req.query, "query");
   res.json(await getFilesPage(memberOf(req).organizationId, String(req.params.corpusId), query));
 });

@@ -110,6 +110,7 @@ function corpusRoutes(): CatalogRoute[] {
   const corpus = (f: TenantFixture) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}`;
   const type = (f: TenantFixture) => `${corpus(f)}/entity-types/${f.ids.entityTypeId}`;
   const EXPORTERS: readonly Role[] = ["admin", "manager", "data_lead"];
+  const CORPUS_DATA: readonly Role[] = ["admin", "manager", "data_lead"];
   return [
     { method: "get", path: (f) => `/orgs/${f.orgId}/corpora`, roles: ALL },
     { method: "post", path: (f) => `/orgs/${f.orgId}/corpora`, roles: MANAGER, body: () => ({ name: "Intruder corpus" }), probe: () => ({ name: " " }) },
@@ -121,7 +122,8 @@ function corpusRoutes(): CatalogRoute[] {
     { method: "patch", path: type, roles: MANAGER, body: () => ({ name: "RENAMED", hotkey: "z" }), probe: () => ({}) },
     { method: "get", path: (f) => `${type(f)}/usage`, roles: MANAGER },
     { method: "delete", path: type, roles: MANAGER, body: () => ({ confirm: true }), probe: () => ({ confirm: "yes" }) },
-    { method: "get", path: (f) => `${corpus(f)}/documents?q=harbour&sort=title`, roles: ALL },
+    // Annotators see documents only through their assignments (issue 14).
+    { method: "get", path: (f) => `${corpus(f)}/documents?q=harbour&sort=title`, roles: CORPUS_DATA },
     {
       method: "post",
       path: (f) => `${corpus(f)}/documents/split`,
@@ -129,14 +131,14 @@ function corpusRoutes(): CatalogRoute[] {
       body: (f) => ({ documentIds: [f.ids.documentId], split: "test" }),
       probe: () => ({ testPercent: 500, seed: 1 }),
     },
-    { method: "get", path: (f) => `${corpus(f)}/documents/${f.ids.documentId}`, roles: ALL },
+    { method: "get", path: (f) => `${corpus(f)}/documents/${f.ids.documentId}`, roles: CORPUS_DATA },
     { method: "delete", path: (f) => `${corpus(f)}/documents/${f.ids.documentId}`, roles: MANAGER },
     { method: "get", path: (f) => `${corpus(f)}/uploads/limits`, roles: ALL },
     // A JSON body carries no files: allowed roles get 400, and nothing is stored.
     { method: "post", path: (f) => `${corpus(f)}/uploads`, roles: MANAGER, body: () => ({ spanMode: "gold" }), probe: () => ({}) },
-    { method: "get", path: (f) => `${corpus(f)}/uploads`, roles: ALL },
-    { method: "get", path: (f) => `${corpus(f)}/uploads/${f.ids.uploadId}`, roles: ALL },
-    { method: "get", path: (f) => `${corpus(f)}/files?state=ready`, roles: ALL },
+    { method: "get", path: (f) => `${corpus(f)}/uploads`, roles: CORPUS_DATA },
+    { method: "get", path: (f) => `${corpus(f)}/uploads/${f.ids.uploadId}`, roles: CORPUS_DATA },
+    { method: "get", path: (f) => `${corpus(f)}/files?state=ready`, roles: CORPUS_DATA },
     { method: "get", path: (f) => `${corpus(f)}/exports?format=jsonl&split=all`, roles: EXPORTERS },
     { method: "get", path: (f) => `${corpus(f)}/exports?format=conll&split=train`, roles: EXPORTERS },
   ];

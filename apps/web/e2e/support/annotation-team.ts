@@ -97,7 +97,7 @@ export async function signIn(page: Page, person: Person, next?: string): Promise
 
 /** Waits until the workspace says every change is saved. */
 export async function waitSaved(page: Page): Promise<void> {
-  await page.locator('[data-save-state="saved"]').getByText("All changes saved").waitFor({ timeout: 10_000 });
+  await page.locator('[data-save-state="saved"][data-saved-at]').getByText(/^Saved /).waitFor({ timeout: 10_000 });
 }
 
 /** Offsets of the first occurrence of a phrase. */

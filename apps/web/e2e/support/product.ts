@@ -51,9 +51,10 @@ function stopChild(child: ChildProcess): Promise<void> {
 
 /**
  * Starts the whole product the way `npm start` does, but private to this test run: a throwaway
- * PostgreSQL, the migrations, the mail catcher, the API serving the built web app, and a worker.
+ * PostgreSQL, the migrations, the mail catcher, the API serving the built web app, and a worker;
+ * with `demo`, also the demo organization of `npm start` (its sign-ins are in the README).
  */
-export async function startProduct(): Promise<Product> {
+export async function startProduct(options: { demo?: boolean } = {}): Promise<Product> {
   const dist = path.join(webDir, "dist");
   if (!fs.existsSync(path.join(dist, "index.html"))) {
     const build = spawnSync("npx", ["vite", "build"], { cwd: webDir, stdio: "inherit" });
@@ -82,6 +83,10 @@ export async function startProduct(): Promise<Product> {
     };
     const migrate = spawnSync(tsx, ["src/db/migrate-cli.ts", "latest"], { cwd: apiDir, env, encoding: "utf8" });
     if (migrate.status !== 0) throw new Error(`migrations failed: ${migrate.stderr}${migrate.stdout}`);
+    if (options.demo) {
+      const seed = spawnSync(tsx, ["src/seed/seed-cli.ts"], { cwd: apiDir, env, encoding: "utf8" });
+      if (seed.status !== 0) throw new Error(`demo data failed: ${seed.stderr}${seed.stdout}`);
+    }
     let output = "";
     const spawnApp = (entry: string) => {
       const child = spawn(tsx, [entry], { cwd: apiDir, env, stdio: ["ignore", "pipe", "pipe"] });

@@ -1,5 +1,6 @@
 import type { ComponentType } from "react";
 import { createBrowserRouter, type RouteObject } from "react-router";
+import { Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { AreaPlaceholder } from "./routes/area-placeholder";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
@@ -67,4 +68,13 @@ export const routes: RouteObject[] = [
   { path: "*", element: <NotFoundRoute /> },
 ];
 
-export const router = createBrowserRouter(routes);
+/** Shown while the first screen's code loads on a fresh page load (React Router's hydrate fallback). */
+function FirstLoad() {
+  return (
+    <div className="p-8">
+      <Skeleton />
+    </div>
+  );
+}
+
+export const router = createBrowserRouter([{ HydrateFallback: FirstLoad, children: routes }]);

@@ -1,11 +1,12 @@
 import { useEffect } from "react";
 import { Link, useParams } from "react-router";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useQueue } from "@/features/queue/api/get-queue";
 import { useAssignment } from "@/features/workspace/api/get-assignment";
 import { Workspace } from "@/features/workspace/components/workspace";
+import { WorkspaceSkeleton } from "@/features/workspace/components/workspace-skeleton";
 
 /** The annotation workspace for one assignment. */
 export function AssignmentRoute() {
@@ -15,7 +16,7 @@ export function AssignmentRoute() {
   useEffect(() => {
     if (assignment.isSuccess) performance.mark("tagloom:assignment-loaded");
   }, [assignment.isSuccess]);
-  if (assignment.isPending) return <Spinner label="Opening the document" />;
+  if (assignment.isPending) return <WorkspaceSkeleton />;
   if (assignment.isError) return <Notice tone="error">{assignment.error.message}</Notice>;
   return (
     <Workspace
@@ -23,9 +24,16 @@ export function AssignmentRoute() {
       orgId={org.organizationId}
       view={assignment.data}
       backLink={
-        <Link to={paths.org.queue.build(org.organizationId)} className="hover:underline">
-          ← My queue
-        </Link>
+        // Someone else's work, opened read-only from Review, goes back to that review.
+        assignment.data.annotator.userId !== org.userId ? (
+          <Link to={paths.org.reviewDocument.build(org.organizationId, corpusId, assignment.data.batch.id, assignment.data.document.id)} className="hover:underline">
+            ← Review
+          </Link>
+        ) : (
+          <Link to={paths.org.queue.build(org.organizationId)} className="hover:underline">
+            ← My queue
+          </Link>
+        )
       }
       afterSubmit={<NextLink orgId={org.organizationId} currentId={assignment.data.id} />}
     />

@@ -3,10 +3,11 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "
 import { useState } from "react";
 import { DataTable } from "@/components/ui/data-table";
 import { Button } from "@/components/ui/button";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { Field, Input, Select } from "@/components/ui/field";
 import { type AuditFilters, useAudit } from "@/features/audit/api/get-audit";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Turns a yyyy-mm-dd date input into the ISO instant of that local midnight. */
 function dayStart(value: string, addDays = 0): string | undefined {
@@ -17,6 +18,14 @@ function dayStart(value: string, addDays = 0): string | undefined {
 }
 
 export function AuditRoute() {
+  return (
+    <RequireAbility ability="viewAudit" what="The audit log is for admins.">
+      <AuditScreen />
+    </RequireAbility>
+  );
+}
+
+function AuditScreen() {
   const org = useCurrentOrg();
   const [action, setAction] = useState("");
   const [actor, setActor] = useState("");
@@ -47,7 +56,7 @@ export function AuditRoute() {
         <Field label="To (inclusive)">{(id) => <Input id={id} type="date" value={to} onChange={(e) => setTo(e.target.value)} />}</Field>
       </div>
       {audit.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : audit.isError ? (
         <Notice tone="error">{audit.error.message}</Notice>
       ) : events.length === 0 ? (

@@ -1,5 +1,5 @@
 import { Link, useParams } from "react-router";
-import { Card, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Card, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useBatch } from "@/features/batches/api/get-batch";
 import { useBatchAgreement } from "@/features/batches/api/get-batch-agreement";
@@ -7,15 +7,24 @@ import { AgreementView } from "@/features/batches/components/agreement-view";
 import { AnnotatorProgress, BatchDocuments } from "@/features/batches/components/batch-progress";
 import { ProgressBar } from "@/features/batches/components/progress-bar";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** A batch: overall progress, progress per annotator, agreement, and its documents to review. */
 export function BatchDetailRoute() {
+  return (
+    <RequireAbility ability="manageBatches" what="A batch's progress is for managers.">
+      <BatchDetailScreen />
+    </RequireAbility>
+  );
+}
+
+function BatchDetailScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const { corpusId = "", batchId = "" } = useParams();
   const batch = useBatch(id, corpusId, batchId);
   const agreement = useBatchAgreement(id, corpusId, batchId);
-  if (batch.isPending) return <Spinner />;
+  if (batch.isPending) return <Skeleton shape="table" rows={6} />;
   if (batch.isError) return <Notice tone="error">{batch.error.message}</Notice>;
   const b = batch.data;
   return (
@@ -47,7 +56,7 @@ export function BatchDetailRoute() {
       </section>
       <section className="space-y-3">
         <h2 className="text-lg font-semibold">Agreement</h2>
-        {agreement.isPending ? <Spinner /> : agreement.isError ? <Notice tone="error">{agreement.error.message}</Notice> : <AgreementView agreement={agreement.data} />}
+        {agreement.isPending ? <Skeleton /> : agreement.isError ? <Notice tone="error">{agreement.error.message}</Notice> : <AgreementView agreement={agreement.data} />}
       </section>
       <section className="space-y-3">
         <h2 className="text-lg font-semibold">Documents</h2>

@@ -1,14 +1,23 @@
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useBatchCorpora } from "@/features/batches/api/get-batch-corpora";
 import { useBatches } from "@/features/batches/api/get-batches";
 import { BatchesTable } from "@/features/batches/components/batches-table";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Every batch of the organization, newest first. */
 export function BatchesRoute() {
+  return (
+    <RequireAbility ability="manageBatches" what="Batches are for managers.">
+      <BatchesScreen />
+    </RequireAbility>
+  );
+}
+
+function BatchesScreen() {
   const org = useCurrentOrg();
   const id = org.organizationId;
   const batches = useBatches(id);
@@ -27,7 +36,7 @@ export function BatchesRoute() {
         }
       />
       {batches.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : batches.isError ? (
         <Notice tone="error">{batches.error.message}</Notice>
       ) : all.length ? (

@@ -2,7 +2,7 @@ import { can } from "@tagloom/contracts";
 import { useState } from "react";
 import { useNavigate } from "react-router";
 import { Button } from "@/components/ui/button";
-import { Card, EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Card, EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { Select } from "@/components/ui/field";
 import { paths } from "@/config/paths";
 import { type CorporaFilter, useCorpora } from "@/features/corpora/api/get-corpora";
@@ -39,7 +39,7 @@ export function CorporaRoute() {
         </Card>
       ) : null}
       {corpora.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : corpora.isError ? (
         <Notice tone="error">{corpora.error.message}</Notice>
       ) : items.length === 0 ? (

@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { useState } from "react";
-import { Link, useParams } from "react-router";
+import { Link, Navigate, useParams } from "react-router";
 import { Notice } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCorpus } from "@/features/corpora/api/get-corpus";
@@ -8,9 +8,22 @@ import { DocumentsTable } from "@/features/documents/components/documents-table"
 import { RandomSplitDialog } from "@/features/documents/components/random-split-dialog";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { formatCount } from "@/lib/format";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** The corpus's Documents table, refreshing while uploaded files are still being processed. */
 export function CorpusDocumentsRoute() {
+  const org = useCurrentOrg();
+  const { corpusId = "" } = useParams();
+  // An annotator opening a corpus lands on its guidelines.
+  if (org.role === "annotator") return <Navigate to={paths.org.corpusSchema.build(org.organizationId, corpusId)} replace />;
+  return (
+    <RequireAbility ability="viewCorpusData" what="A corpus's documents and their gold spans are for managers and data leads; annotators see the documents of their own assignments.">
+      <CorpusDocumentsScreen />
+    </RequireAbility>
+  );
+}
+
+function CorpusDocumentsScreen() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const corpus = useCorpus(org.organizationId, corpusId);

@@ -1,6 +1,6 @@
-import { can } from "@tagloom/contracts";
+import { can, countOf } from "@tagloom/contracts";
 import { Link, NavLink, Outlet, useParams } from "react-router";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCorpus } from "@/features/corpora/api/get-corpus";
 import { ExportButtons } from "@/features/exports/components/export-buttons";
@@ -14,17 +14,19 @@ export function CorpusLayoutRoute() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const corpus = useCorpus(org.organizationId, corpusId);
-  if (corpus.isPending) return <Spinner />;
+  if (corpus.isPending) return <Skeleton />;
   if (corpus.isError) {
     if ("status" in corpus.error && corpus.error.status === 404) return <NotFoundRoute />;
     return <Notice tone="error">{corpus.error.message}</Notice>;
   }
   const c = corpus.data;
   const orgId = org.organizationId;
+  // Annotators see a corpus's schema and guidelines only, never its documents, gold or uploads.
+  const data = can(org.role, "viewCorpusData");
   const tabs = [
-    { label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true },
-    { label: "Entity schema", to: paths.org.corpusSchema.build(orgId, corpusId) },
-    { label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) },
+    ...(data ? [{ label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true }] : []),
+    { label: data ? "Entity schema" : "Entity schema and guidelines", to: paths.org.corpusSchema.build(orgId, corpusId) },
+    ...(data ? [{ label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
   ];
   return (
@@ -44,9 +46,9 @@ export function CorpusLayoutRoute() {
         subtitle={
           <span data-testid="corpus-counts">
             {c.description ? `${c.description} · ` : ""}
-            {formatCount(c.documentCount)} documents ({formatCount(c.splits.train)} train, {formatCount(c.splits.test)} test) · {formatCount(c.statuses.gold)} gold ·{" "}
-            {formatCount(c.entityTypeCount)} entity types
-            {c.pendingFiles > 0 ? ` · ${formatCount(c.pendingFiles)} files processing` : ""}
+            {countOf(c.documentCount, "document")} ({formatCount(c.splits.train)} train, {formatCount(c.splits.test)} test) · {formatCount(c.statuses.gold)} gold ·{" "}
+            {countOf(c.entityTypeCount, "entity type")}
+            {c.pendingFiles > 0 ? ` · ${countOf(c.pendingFiles, "file")} being read` : ""}
           </span>
         }
         actions={can(org.role, "exportData") ? <ExportButtons orgId={orgId} corpusId={corpusId} goldCount={c.statuses.gold} /> : null}

@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { useNavigate, useParams } from "react-router";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
 import { useCorpus } from "@/features/corpora/api/get-corpus";
@@ -15,7 +15,7 @@ export function CorpusSettingsRoute() {
   const navigate = useNavigate();
   const toast = useToast();
   if (!can(org.role, "manageCorpora")) return <Notice tone="info">Only managers and admins change a corpus's settings.</Notice>;
-  if (corpus.isPending) return <Spinner />;
+  if (corpus.isPending) return <Skeleton />;
   if (corpus.isError) return <Notice tone="error">{corpus.error.message}</Notice>;
   return (
     <CorpusSettings

@@ -5,9 +5,18 @@ import { useCorpus } from "@/features/corpora/api/get-corpus";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { FilesTable } from "@/features/uploads/components/files-table";
 import { UploadPanel } from "@/features/uploads/components/upload-panel";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** Upload files (managers) and follow every file of the corpus to ready or refused. */
 export function CorpusUploadsRoute() {
+  return (
+    <RequireAbility ability="viewCorpusData" what="Uploads are for managers and data leads.">
+      <CorpusUploadsScreen />
+    </RequireAbility>
+  );
+}
+
+function CorpusUploadsScreen() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const corpus = useCorpus(org.organizationId, corpusId);

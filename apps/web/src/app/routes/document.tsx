@@ -1,8 +1,8 @@
-import { can } from "@tagloom/contracts";
+import { annotationStatusLabels, can, splitLabels } from "@tagloom/contracts";
 import { useState } from "react";
 import { Link, useNavigate, useParams } from "react-router";
 import { Button } from "@/components/ui/button";
-import { Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { Dialog } from "@/components/ui/dialog";
 import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
@@ -12,13 +12,21 @@ import { TypeChip } from "@/features/corpora/components/entity-schema-editor";
 import { useDeleteDocument } from "@/features/documents/api/delete-document";
 import { useDocument } from "@/features/documents/api/get-document";
 import { DocumentText } from "@/features/documents/components/document-text";
-import { splitLabels, statusLabels } from "@/features/documents/components/labels";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { formatCount } from "@/lib/format";
 import { NotFoundRoute } from "./not-found";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 /** One document, read-only: its text with gold spans in their types' colours, and its suggestions. */
 export function DocumentRoute() {
+  return (
+    <RequireAbility ability="viewCorpusData" what="A document with its gold spans is for managers and data leads; annotators see the documents of their own assignments.">
+      <DocumentScreen />
+    </RequireAbility>
+  );
+}
+
+function DocumentScreen() {
   const org = useCurrentOrg();
   const { corpusId = "", documentId = "" } = useParams();
   const orgId = org.organizationId;
@@ -29,7 +37,7 @@ export function DocumentRoute() {
   const navigate = useNavigate();
   const toast = useToast();
   const [confirming, setConfirming] = useState(false);
-  if (doc.isPending || types.isPending) return <Spinner />;
+  if (doc.isPending || types.isPending) return <Skeleton />;
   if (doc.isError) return "status" in doc.error && doc.error.status === 404 ? <NotFoundRoute /> : <Notice tone="error">{doc.error.message}</Notice>;
   if (types.isError) return <Notice tone="error">{types.error.message}</Notice>;
   const d = doc.data;
@@ -43,7 +51,7 @@ export function DocumentRoute() {
       </p>
       <PageHeader
         title={d.title}
-        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${statusLabels[d.annotationStatus]}`}
+        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${annotationStatusLabels[d.annotationStatus]}`}
         actions={
           can(org.role, "manageCorpora") ? (
             <Button variant="ghost" className="text-rust-500" onClick={() => setConfirming(true)}>

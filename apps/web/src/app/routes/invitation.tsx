@@ -2,7 +2,7 @@ import { roleLabels } from "@tagloom/contracts";
 import { useNavigate, useParams } from "react-router";
 import { AuthLayout } from "@/components/layout/auth-layout";
 import { Button } from "@/components/ui/button";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useSignOut } from "@/features/auth/api/auth-mutations";
 import { useMe } from "@/features/auth/api/get-me";
@@ -18,7 +18,7 @@ export function InvitationRoute() {
   const accept = useAcceptInvitation();
   const signOut = useSignOut();
 
-  if (me.isPending || preview.isPending) return <Spinner />;
+  if (me.isPending || preview.isPending) return <Skeleton />;
   if (preview.isError) {
     return (
       <AuthLayout title="Invitation">

@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { Button } from "@/components/ui/button";
-import { Card, EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { Card, EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { InvitationsTable } from "@/features/invitations/components/invitations-table";
 import { InviteForm } from "@/features/invitations/components/invite-form";
 import { useInvitations } from "@/features/invitations/api/invitations";
@@ -25,7 +25,7 @@ export function MembersRoute() {
       ) : null}
       <section className="space-y-3">
         {members.isPending ? (
-          <Spinner />
+          <Skeleton shape="table" />
         ) : members.isError ? (
           <Notice tone="error">{members.error.message}</Notice>
         ) : (
@@ -41,7 +41,7 @@ export function MembersRoute() {
         <section className="space-y-3">
           <h2 className="font-semibold text-ink-900">Invitations</h2>
           {invitations.isPending ? (
-            <Spinner />
+            <Skeleton shape="table" />
           ) : invitations.isError ? (
             <Notice tone="error">{invitations.error.message}</Notice>
           ) : invitations.data.items.length ? (

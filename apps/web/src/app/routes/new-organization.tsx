@@ -3,7 +3,7 @@ import { useState } from "react";
 import { Navigate, useNavigate } from "react-router";
 import { AuthLayout } from "@/components/layout/auth-layout";
 import { Button } from "@/components/ui/button";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { Field, Input } from "@/components/ui/field";
 import { paths } from "@/config/paths";
 import { useMe } from "@/features/auth/api/get-me";
@@ -15,7 +15,7 @@ export function NewOrganizationRoute() {
   const navigate = useNavigate();
   const [name, setName] = useState("");
   const [error, setError] = useState<string | null>(null);
-  if (me.isPending) return <Spinner />;
+  if (me.isPending) return <Skeleton />;
   if (!me.data) return <Navigate to={paths.signIn.build(paths.newOrganization.build())} replace />;
   return (
     <AuthLayout title="New organization" subtitle="You will be its admin and can invite others.">

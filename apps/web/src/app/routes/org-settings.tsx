@@ -8,8 +8,17 @@ import { useToast } from "@/components/ui/toaster";
 import { paths } from "@/config/paths";
 import { useDeleteOrganization, useRenameOrganization } from "@/features/orgs/api/orgs";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RequireAbility } from "@/components/layout/not-allowed";
 
 export function OrgSettingsRoute() {
+  return (
+    <RequireAbility ability="manageOrganization" what="The organization's settings are for admins.">
+      <OrgSettingsScreen />
+    </RequireAbility>
+  );
+}
+
+function OrgSettingsScreen() {
   const org = useCurrentOrg();
   const toast = useToast();
   const navigate = useNavigate();

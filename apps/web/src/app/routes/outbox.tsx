@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Link } from "react-router";
 import { Brand } from "@/components/layout/brand";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { useAppMeta, useOutbox } from "@/features/outbox/api/outbox";
 import { cn } from "@/lib/cn";
 import { NotFoundRoute } from "./not-found";
@@ -12,7 +12,7 @@ export function OutboxRoute() {
   const enabled = meta.data?.outbox === true;
   const outbox = useOutbox(enabled);
   const [openId, setOpenId] = useState<string | null>(null);
-  if (meta.isPending) return <Spinner />;
+  if (meta.isPending) return <Skeleton />;
   if (!enabled) return <NotFoundRoute />;
   const items = outbox.data?.items ?? [];
   const open = items.find((m) => m.id === openId) ?? items[0];
@@ -26,7 +26,7 @@ export function OutboxRoute() {
       </div>
       <PageHeader title="Outbox" subtitle="Development only: every e-mail the local mail catcher received. Not available in production." />
       {outbox.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : outbox.isError ? (
         <Notice tone="error">{outbox.error.message}</Notice>
       ) : items.length === 0 ? (

@@ -1,5 +1,5 @@
 import { Link } from "react-router";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useQueue } from "@/features/queue/api/get-queue";
@@ -24,7 +24,7 @@ export function QueueRoute() {
         }
       />
       {queue.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : queue.isError ? (
         <Notice tone="error">{queue.error.message}</Notice>
       ) : queue.data.items.length ? (

@@ -1,5 +1,5 @@
 import { Navigate, useNavigate, useSearchParams } from "react-router";
-import { Spinner } from "@/components/ui/card";
+import { Skeleton } from "@/components/ui/card";
 import { AuthLayout } from "@/components/layout/auth-layout";
 import { useMe } from "@/features/auth/api/get-me";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
@@ -10,7 +10,7 @@ export function SignInRoute() {
   const navigate = useNavigate();
   const me = useMe();
   const next = safeNext(params.get("next"));
-  if (me.isPending) return <Spinner />;
+  if (me.isPending) return <Skeleton />;
   if (me.data) return <Navigate to={next ?? homeFor(me.data)} replace />;
   return (
     <AuthLayout title="Sign in" subtitle="Welcome back.">

@@ -1,5 +1,5 @@
 import { Link, Navigate, useNavigate } from "react-router";
-import { Spinner } from "@/components/ui/card";
+import { Skeleton } from "@/components/ui/card";
 import { AuthLayout } from "@/components/layout/auth-layout";
 import { paths } from "@/config/paths";
 import { useMe } from "@/features/auth/api/get-me";
@@ -9,7 +9,7 @@ import { homeFor } from "./redirects";
 export function SignUpRoute() {
   const navigate = useNavigate();
   const me = useMe();
-  if (me.isPending) return <Spinner />;
+  if (me.isPending) return <Skeleton />;
   if (me.data) return <Navigate to={homeFor(me.data)} replace />;
   return (
     <AuthLayout

@@ -2,7 +2,7 @@ import { useMutation } from "@tanstack/react-query";
 import { useEffect } from "react";
 import { Link, useSearchParams } from "react-router";
 import { AuthLayout } from "@/components/layout/auth-layout";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { verifyEmail } from "@/features/auth/api/auth-mutations";
 import { useQueryClient } from "@tanstack/react-query";
@@ -21,7 +21,7 @@ export function VerifyEmailRoute() {
       {!token ? (
         <Notice tone="error">This page needs the link from the e-mail.</Notice>
       ) : verify.isPending || verify.isIdle ? (
-        <Spinner label="Confirming" />
+        <Skeleton label="Confirming" />
       ) : verify.isError ? (
         <Notice tone="error">{verify.error.message}</Notice>
       ) : (

@@ -13,7 +13,7 @@ export function OrgSwitcher({ memberships, current }: { memberships: Membership[
       <span className="sr-only">Organization</span>
       <select
         aria-label="Organization"
-        className="max-w-64 truncate rounded-md border border-ink-200 bg-white px-2 py-1.5 text-sm font-medium text-ink-800"
+        className="w-32 max-w-64 truncate rounded-md sm:w-auto border border-ink-200 bg-white px-2 py-1.5 text-sm font-medium text-ink-800"
         value={current}
         onChange={(e) => navigate(e.target.value === NEW ? paths.newOrganization.build() : paths.org.root.build(e.target.value))}
       >

@@ -40,11 +40,33 @@ export function Notice({ tone = "info", children, className }: { tone?: "info" |
   );
 }
 
-export function Spinner({ label = "Loading" }: { label?: string }) {
+/**
+ * A placeholder in the shape of what is coming (grey bars where lines and rows will be), instead
+ * of a blank page with "Loading…". `table` draws a header and rows; `text` draws paragraph lines.
+ */
+export function Skeleton({ label = "Loading", shape = "text", rows = 4 }: { label?: string; shape?: "text" | "table"; rows?: number }) {
+  const widths = [92, 78, 85, 64, 88, 71];
   return (
-    <div role="status" className="flex items-center gap-2 text-sm text-ink-500">
-      <span className="size-4 animate-spin rounded-full border-2 border-ink-300 border-t-transparent" aria-hidden />
-      {label}…
+    <div role="status" className="w-full animate-pulse motion-reduce:animate-none" data-testid="skeleton">
+      <span className="sr-only">{label}…</span>
+      {shape === "table" ? (
+        <div aria-hidden className="overflow-hidden rounded-lg border border-ink-100 bg-white">
+          <div className="h-9 border-b border-ink-100 bg-ink-50/60" />
+          {Array.from({ length: rows }, (_, i) => (
+            <div key={i} className="flex gap-4 border-b border-ink-50 px-4 py-3 last:border-0">
+              <div className="h-3.5 rounded bg-ink-100" style={{ width: `${widths[i % widths.length]! / 2}%` }} />
+              <div className="h-3.5 w-1/6 rounded bg-ink-50" />
+              <div className="h-3.5 w-1/6 rounded bg-ink-50" />
+            </div>
+          ))}
+        </div>
+      ) : (
+        <div aria-hidden className="space-y-2.5">
+          {Array.from({ length: rows }, (_, i) => (
+            <div key={i} className="h-3.5 rounded bg-ink-100" style={{ width: `${widths[i % widths.length]}%` }} />
+          ))}
+        </div>
+      )}
     </div>
   );
 }

@@ -1,7 +1,9 @@
-import type { BatchSummary } from "@tagloom/contracts";
+import { type BatchSummary, batchStateOf, batchStateStates } from "@tagloom/contracts";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
+import { DueDate } from "@/components/ui/due-date";
+import { StateBadge } from "@/components/ui/state-badge";
 import { ProgressBar } from "./progress-bar";
 
 const col = createColumnHelper<BatchSummary>();
@@ -18,7 +20,8 @@ export function BatchesTable({ batches, corpusName, linkTo }: { batches: BatchSu
       ),
     }),
     col.accessor("corpusId", { header: "Corpus", cell: (c) => corpusName(c.getValue()) }),
-    col.accessor("dueDate", { header: "Due", cell: (c) => c.getValue() ?? "—" }),
+    col.display({ id: "state", header: "State", cell: (c) => <StateBadge state={batchStateStates[batchStateOf(c.row.original.assignments)]} /> }),
+    col.accessor("dueDate", { header: "Due", cell: (c) => <DueDate day={c.getValue()} /> }),
     col.accessor("documentCount", { header: "Documents", cell: (c) => `${c.row.original.documentsSettled} of ${c.getValue()} settled` }),
     col.accessor("annotatorsPerDocument", { header: "Per document" }),
     col.display({ id: "progress", header: "Assignments", cell: (c) => <ProgressBar counts={c.row.original.assignments} label={c.row.original.name} /> }),

@@ -1,11 +1,10 @@
-import { annotationStatuses } from "@tagloom/contracts";
+import { annotationStatusLabels, annotationStatusStates, annotationStatuses } from "@tagloom/contracts";
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { Input, Select } from "@/components/ui/field";
+import { StateBadge } from "@/components/ui/state-badge";
 import { type CandidateFilter, useBatchCandidates } from "../api/get-batch-candidates";
-
-const statusNames = { none: "Not annotated", in_progress: "Being annotated", submitted: "Submitted", gold: "Gold" } as const;
 
 /** Picks documents of a corpus for a batch: search, filter by status, tick rows or all shown. */
 export function DocumentPicker({
@@ -64,7 +63,7 @@ export function DocumentPicker({
             <option value="">Any status</option>
             {annotationStatuses.map((s) => (
               <option key={s} value={s}>
-                {statusNames[s]}
+                {annotationStatusLabels[s]}
               </option>
             ))}
           </Select>
@@ -82,7 +81,7 @@ export function DocumentPicker({
         ) : null}
       </div>
       {docs.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : docs.isError ? (
         <Notice tone="error">{docs.error.message}</Notice>
       ) : rows.length ? (
@@ -112,7 +111,9 @@ export function DocumentPicker({
                   </td>
                   <td className="px-3 py-1.5 text-ink-800">{r.title}</td>
                   <td className="px-3 py-1.5 text-right tabular-nums">{r.tokenCount.toLocaleString("en")}</td>
-                  <td className="px-3 py-1.5 text-ink-500">{statusNames[r.annotationStatus]}</td>
+                  <td className="px-3 py-1.5">
+                    <StateBadge state={annotationStatusStates[r.annotationStatus]} />
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,5 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
-import { type Corpus, type UpdateCorpusInput, updateCorpusInputSchema } from "@tagloom/contracts";
+import { type Corpus, type UpdateCorpusInput, countOf, updateCorpusInputSchema } from "@tagloom/contracts";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/button";
@@ -66,7 +66,7 @@ export function CorpusSettings({ orgId, corpus, documentCount, onDeleted }: { or
       <Card className="border-rust-500/30">
         <h2 className="mb-1 font-semibold text-rust-500">Delete for good</h2>
         <p className="mb-3 text-sm text-ink-700">
-          Deletes the corpus with its {documentCount.toLocaleString("en")} documents, their spans, batches, assignments and taggers. This cannot be undone.
+          Deletes the corpus with its {countOf(documentCount, "document")}, their spans, batches, assignments and taggers. This cannot be undone.
         </p>
         <Button variant="danger" onClick={() => setDeleteOpen(true)}>
           Delete corpus…

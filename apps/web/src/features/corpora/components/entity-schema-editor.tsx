@@ -1,10 +1,10 @@
+import { TypeKey } from "@/components/spans";
 import { type EntityType, nextEntityTypeColor } from "@tagloom/contracts";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Card, EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { Card, EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { Dialog } from "@/components/ui/dialog";
 import { useToast } from "@/components/ui/toaster";
-import { readableTextColor } from "@/lib/colors";
 import { formatCount } from "@/lib/format";
 import { useCreateEntityType } from "../api/create-entity-type";
 import { useDeleteEntityType } from "../api/delete-entity-type";
@@ -12,15 +12,11 @@ import { useEntityTypeUsage } from "../api/get-entity-type-usage";
 import { useEntityTypes } from "../api/get-entity-types";
 import { useUpdateEntityType } from "../api/update-entity-type";
 import { EntityTypeForm } from "./entity-type-form";
-import { GuidelineText } from "./guideline-text";
+import { GuidelineText } from "@/components/markdown/guideline-text";
 
 /** A type's name on its colour, as spans show it. */
 export function TypeChip({ type }: { type: Pick<EntityType, "name" | "color"> }) {
-  return (
-    <span className="inline-flex items-center rounded px-2 py-0.5 font-mono text-xs font-semibold" style={{ background: type.color, color: readableTextColor(type.color) }}>
-      {type.name}
-    </span>
-  );
+  return <TypeKey type={type} />;
 }
 
 /**
@@ -36,7 +32,7 @@ export function EntitySchemaEditor({ orgId, corpusId, canManage }: { orgId: stri
   const [deleting, setDeleting] = useState<EntityType | null>(null);
   const [formKey, setFormKey] = useState(0);
 
-  if (types.isPending) return <Spinner />;
+  if (types.isPending) return <Skeleton />;
   if (types.isError) return <Notice tone="error">{types.error.message}</Notice>;
   const list = types.data;
 
@@ -147,7 +143,7 @@ function DeleteTypeDialog({ orgId, corpusId, type, onClose }: { orgId: string; c
       }}
     >
       {usage.isPending ? (
-        <Spinner label="Counting its spans" />
+        <Skeleton label="Counting its spans" />
       ) : usage.isError ? (
         <Notice tone="error">{usage.error.message}</Notice>
       ) : (

@@ -1,16 +1,17 @@
-import type { AnnotationStatus, DocumentListItem, DocumentSort } from "@tagloom/contracts";
+import { type AnnotationStatus, type DocumentListItem, type DocumentSort, annotationStatusLabels, annotationStatusStates, annotationStatuses, countOf, splitLabels } from "@tagloom/contracts";
 import { createColumnHelper, flexRender, getCoreRowModel, type RowSelectionState, useReactTable } from "@tanstack/react-table";
 import { type ReactNode, useEffect, useState } from "react";
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
-import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { Field, Input, Select } from "@/components/ui/field";
+import { StateBadge } from "@/components/ui/state-badge";
 import { useToast } from "@/components/ui/toaster";
+import { formatDateTime } from "@/lib/dates";
 import { formatCount } from "@/lib/format";
 import { type DocumentsParams, useDocuments } from "../api/get-documents";
 import { useSetSplit } from "../api/set-split";
-import { splitLabels, statusLabels } from "./labels";
 
 const col = createColumnHelper<DocumentListItem>();
 type SplitFilter = "" | "train" | "test" | "none";
@@ -53,10 +54,10 @@ const dataColumns = [
   col.accessor("filename", { header: "File", cell: (c) => <span className="text-ink-500">{c.getValue() ?? "—"}</span> }),
   col.accessor("tokenCount", { header: sortHeader("Tokens", "tokens"), cell: (c) => <span className="tabular-nums">{formatCount(c.getValue())}</span> }),
   col.accessor("split", { header: "Split", cell: (c) => splitLabels[c.getValue() ?? "none"] }),
-  col.accessor("annotationStatus", { header: "Status", cell: (c) => statusLabels[c.getValue()] }),
+  col.accessor("annotationStatus", { header: "Status", cell: (c) => <StateBadge state={annotationStatusStates[c.getValue()]} /> }),
   col.accessor("createdAt", {
     header: sortHeader("Added", "created"),
-    cell: (c) => <span className="whitespace-nowrap text-ink-500">{new Date(c.getValue()).toLocaleString()}</span>,
+    cell: (c) => <span className="whitespace-nowrap text-ink-500">{formatDateTime(c.getValue())}</span>,
   }),
 ];
 const managerColumns = [selectColumn, ...dataColumns];
@@ -150,7 +151,7 @@ export function DocumentsTable({
     try {
       const r = await setSplitMutation.mutateAsync({ documentIds: selectedIds, split: value });
       const n = r.train + r.test + r.cleared;
-      toast.show(value ? `${formatCount(n)} documents set to ${value}.` : `Split cleared on ${formatCount(n)} documents.`, "success");
+      toast.show(value ? `${countOf(n, "document")} set to ${value}.` : `Split cleared on ${countOf(n, "document")}.`, "success");
       setSelection({});
     } catch (err) {
       toast.show((err as Error).message, "error");
@@ -177,9 +178,9 @@ export function DocumentsTable({
           {(id) => (
             <Select id={id} value={status} onChange={(e) => setStatus(e.target.value as AnnotationStatus | "")}>
               <option value="">Any</option>
-              {(Object.keys(statusLabels) as AnnotationStatus[]).map((s) => (
+              {(annotationStatuses).map((s) => (
                 <option key={s} value={s}>
-                  {statusLabels[s]}
+                  {annotationStatusLabels[s]}
                 </option>
               ))}
             </Select>
@@ -215,7 +216,7 @@ export function DocumentsTable({
       ) : null}
 
       {docs.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : docs.isError ? (
         <Notice tone="error">{docs.error.message}</Notice>
       ) : docs.data.items.length === 0 ? (

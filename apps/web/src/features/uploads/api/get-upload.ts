@@ -1,5 +1,6 @@
 import type { UploadResult } from "@tagloom/contracts";
-import { queryOptions, useQuery } from "@tanstack/react-query";
+import { queryOptions, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useEffect } from "react";
 import { api } from "@/lib/api-client";
 import { corpusKey } from "./keys";
 
@@ -16,7 +17,20 @@ export const uploadQueryOptions = (orgId: string, corpusId: string, uploadId: st
     },
   });
 
-/** One upload with its files, refreshed while any file is queued or processing. */
+/**
+ * One upload with its files, refreshed while any file is queued or processing. Each time its
+ * counts change, everything else about the corpus (its header, files table and documents) is
+ * fetched again, so the screen never shows a file ready in one place and queued in another.
+ */
 export function useUpload(orgId: string, corpusId: string, uploadId: string) {
-  return useQuery(uploadQueryOptions(orgId, corpusId, uploadId));
+  const qc = useQueryClient();
+  const query = useQuery(uploadQueryOptions(orgId, corpusId, uploadId));
+  const c = query.data?.upload.counts;
+  const signature = c ? `${c.queued}/${c.processing}/${c.ready}/${c.failed}` : null;
+  useEffect(() => {
+    if (!signature) return;
+    const own = uploadQueryOptions(orgId, corpusId, uploadId).queryKey;
+    void qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId), predicate: (q) => q.queryKey.length !== own.length || q.queryKey[own.length - 1] !== uploadId });
+  }, [qc, orgId, corpusId, uploadId, signature]);
+  return query;
 }

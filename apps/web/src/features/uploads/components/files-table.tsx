@@ -1,19 +1,20 @@
-import { type FileState, type UploadFile, fileStates } from "@tagloom/contracts";
+import { type FileState, type UploadFile, fileStateLabels, fileStateStates, fileStates } from "@tagloom/contracts";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
-import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
+import { StateBadge } from "@/components/ui/state-badge";
 import { cn } from "@/lib/cn";
+import { formatDateTime } from "@/lib/dates";
 import { formatBytes, formatCount } from "@/lib/format";
 import { useFiles } from "../api/get-files";
 import { FileProblems } from "./file-problems";
-import { FileStateBadge } from "./file-state-badge";
 
 const col = createColumnHelper<UploadFile>();
 const columns = [
   col.accessor("filename", { header: "File", cell: (c) => <span className="font-medium">{c.getValue()}</span> }),
-  col.accessor("state", { header: "State", cell: (c) => <FileStateBadge state={c.getValue()} /> }),
+  col.accessor("state", { header: "State", cell: (c) => <StateBadge state={fileStateStates[c.getValue()]} /> }),
   col.accessor("sizeBytes", { header: "Size", cell: (c) => <span className="whitespace-nowrap text-ink-500">{formatBytes(c.getValue())}</span> }),
   col.accessor("documentsCreated", { header: "Documents", cell: (c) => (c.row.original.state === "ready" ? formatCount(c.getValue()) : "—") }),
   col.display({
@@ -27,10 +28,10 @@ const columns = [
         </div>
       ) : null,
   }),
-  col.accessor("createdAt", { header: "Uploaded", cell: (c) => <span className="whitespace-nowrap text-ink-500">{new Date(c.getValue()).toLocaleString()}</span> }),
+  col.accessor("createdAt", { header: "Uploaded", cell: (c) => <span className="whitespace-nowrap text-ink-500">{formatDateTime(c.getValue())}</span> }),
 ];
 
-const stateLabels: Record<FileState | "all", string> = { all: "All", queued: "Queued", processing: "Processing", ready: "Ready", failed: "Failed" };
+const stateLabels: Record<FileState | "all", string> = { all: "All", ...fileStateLabels };
 
 /** Every file uploaded to the corpus with its state; refreshes while files are queued or processing. */
 export function FilesTable({ orgId, corpusId }: { orgId: string; corpusId: string }) {
@@ -60,7 +61,7 @@ export function FilesTable({ orgId, corpusId }: { orgId: string; corpusId: strin
         ))}
       </div>
       {files.isPending ? (
-        <Spinner />
+        <Skeleton shape="table" />
       ) : files.isError ? (
         <Notice tone="error">{files.error.message}</Notice>
       ) : files.data.items.length === 0 ? (

@@ -107,7 +107,7 @@ describe("UploadPanel", () => {
     expect(within(results).getAllByText("1 document imported")).toHaveLength(2);
     await userEvent.click(within(results).getByText("All 2 problems"));
     expect(within(results).getByText("line 5: not valid JSON")).toBeInTheDocument();
-    expect(within(results).getByText("All files processed: 1 ready, 1 refused.")).toBeInTheDocument();
+    expect(within(results).getByText("All files read: 1 imported, 1 refused.")).toBeInTheDocument();
   });
 
   it("says why nothing can be uploaded to an archived corpus", async () => {

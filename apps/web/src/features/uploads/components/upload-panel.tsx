@@ -1,7 +1,7 @@
 import type { SpanMode } from "@tagloom/contracts";
 import { type DragEvent, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Card, Notice, Spinner } from "@/components/ui/card";
+import { Card, Notice, Skeleton } from "@/components/ui/card";
 import { Field, Select } from "@/components/ui/field";
 import { cn } from "@/lib/cn";
 import { formatBytes, formatCount } from "@/lib/format";
@@ -78,7 +78,7 @@ export function UploadPanel({ orgId, corpusId, disabledReason }: { orgId: string
           and managers can delete a document or a whole corpus for good, and every upload and deletion is kept in the audit log.
         </Notice>
         {disabledReason ? <Notice tone="info">{disabledReason}</Notice> : null}
-        {limits.isPending ? <Spinner label="Reading the upload limits" /> : null}
+        {limits.isPending ? <Skeleton label="Reading the upload limits" /> : null}
         {limits.isError ? <Notice tone="error">{limits.error.message}</Notice> : null}
         <div
           role="group"

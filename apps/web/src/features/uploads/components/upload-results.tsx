@@ -1,9 +1,9 @@
-import type { UploadFile } from "@tagloom/contracts";
-import { Notice, Spinner } from "@/components/ui/card";
+import { type UploadFile, countOf, fileStateStates } from "@tagloom/contracts";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { formatBytes, formatCount } from "@/lib/format";
 import { useUpload } from "../api/get-upload";
 import { FileProblems } from "./file-problems";
-import { FileStateBadge } from "./file-state-badge";
+import { StateBadge } from "@/components/ui/state-badge";
 
 export type LocalRefusal = { filename: string; sizeBytes: number; reason: string };
 
@@ -23,11 +23,11 @@ export function FileResultList({ files, localRefusals = [] }: { files: UploadFil
       {files.map((f) => (
         <li key={f.id} className="flex flex-wrap items-start gap-x-3 gap-y-1 px-3 py-2" data-state={f.state}>
           <span className="font-medium text-ink-800">{f.filename}</span>
-          <FileStateBadge state={f.state} />
+          <StateBadge state={fileStateStates[f.state]} />
           <span className="text-xs text-ink-500">{formatBytes(f.sizeBytes)}</span>
           {f.state === "ready" ? (
             <span className="text-xs text-moss-500">
-              {formatCount(f.documentsCreated)} document{f.documentsCreated === 1 ? "" : "s"} imported
+              {countOf(f.documentsCreated, "document")} imported
             </span>
           ) : null}
           {f.state === "failed" && f.error ? (
@@ -45,15 +45,15 @@ export function FileResultList({ files, localRefusals = [] }: { files: UploadFil
 /** The results of one upload, refreshed until every file is ready or failed. */
 export function UploadResults({ orgId, corpusId, uploadId }: { orgId: string; corpusId: string; uploadId: string }) {
   const upload = useUpload(orgId, corpusId, uploadId);
-  if (upload.isPending) return <Spinner />;
+  if (upload.isPending) return <Skeleton />;
   if (upload.isError) return <Notice tone="error">{upload.error.message}</Notice>;
   const { counts } = upload.data.upload;
   const pending = counts.queued + counts.processing;
   return (
     <div className="space-y-2">
       <p className="text-sm text-ink-700" aria-live="polite">
-        {pending > 0 ? `${pending} of ${upload.data.files.length} files still processing… ` : "All files processed: "}
-        {counts.ready} ready, {counts.failed} refused.
+        {pending > 0 ? `${pending} of ${countOf(upload.data.files.length, "file")} still being read… ` : "All files read: "}
+        {formatCount(counts.ready)} imported, {formatCount(counts.failed)} refused.
       </p>
       <FileResultList files={upload.data.files} />
     </div>

@@ -1,6 +1,7 @@
 import type { SuggestedSpan } from "@tagloom/contracts";
 import { useVirtualizer } from "@tanstack/react-virtual";
-import { type KeyboardEvent, type PointerEvent, forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef } from "react";
+import { type KeyboardEvent, type PointerEvent, forwardRef, useCallback, useEffect, useImperativeHandle, useRef } from "react";
+import { useSpanStyles } from "@/components/spans";
 import type { AnnotationStore, WorkSpan } from "../lib/annotation-store";
 import { handleWorkspaceKey } from "../lib/keymap";
 import { TextBlock } from "./text-block";
@@ -32,13 +33,13 @@ function tokenOf(el: Element | null): number | null {
 export const DocumentText = forwardRef<DocumentTextHandle, Props>(function DocumentText({ store, onMenu, onHelp, onGuideline }, ref) {
   const scrollRef = useRef<HTMLDivElement>(null);
   const { doc } = store;
-  const colors = useMemo(() => new Map(store.types.map((t) => [t.name, t.color])), [store]);
+  const { colors, codes } = useSpanStyles(store.types);
   const virtualizer = useVirtualizer({
     count: doc.blocks.length,
     getScrollElement: () => scrollRef.current,
     estimateSize: (i) => {
       const b = doc.blocks[i]!;
-      return Math.ceil((b.end - b.start + 1) / 95) * 32 + 16;
+      return Math.ceil((b.end - b.start + 1) / 95) * 38 + 16;
     },
     overscan: 6,
   });
@@ -129,13 +130,13 @@ export const DocumentText = forwardRef<DocumentTextHandle, Props>(function Docum
       onPointerUp={onPointerUp}
       onPointerCancel={() => (drag.current = null)}
       data-testid="document-text"
-      className="relative h-full overflow-y-auto rounded-lg border border-ink-100 bg-white px-8 py-6 font-serif text-[17px] text-ink-900 select-none focus:outline-none focus-visible:ring-2 focus-visible:ring-thread-300"
+      className="relative h-full overflow-y-auto rounded-lg border border-ink-100 bg-white px-4 py-4 sm:px-8 sm:py-6 font-serif text-[17px] text-ink-900 select-none focus:outline-none focus-visible:ring-2 focus-visible:ring-thread-300"
     >
       <div style={{ height: virtualizer.getTotalSize(), position: "relative" }}>
         <div style={{ position: "absolute", top: 0, left: 0, right: 0, transform: `translateY(${items[0]?.start ?? 0}px)` }}>
           {items.map((item) => (
             <div key={item.key} data-index={item.index} ref={virtualizer.measureElement}>
-              <TextBlock store={store} index={item.index} colors={colors} />
+              <TextBlock store={store} index={item.index} colors={colors} codes={codes} />
             </div>
           ))}
         </div>

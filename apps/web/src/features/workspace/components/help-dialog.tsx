@@ -1,4 +1,5 @@
 import { useEffect, useRef } from "react";
+import { GuidelineText } from "@/components/markdown/guideline-text";
 import { Button } from "@/components/ui/button";
 import type { AnnotationStore } from "../lib/annotation-store";
 import { KEY_HELP } from "../lib/keymap";
@@ -8,7 +9,7 @@ export function HelpDialog({ store, onClose }: { store: AnnotationStore; onClose
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => ref.current?.focus(), []);
   return (
-    <div className="fixed inset-0 z-40 flex items-start justify-center bg-ink-900/30 p-8" onPointerDown={(e) => e.target === e.currentTarget && onClose()}>
+    <div className="fixed inset-0 z-40 flex items-start justify-center bg-ink-900/30 p-2 sm:p-8" onPointerDown={(e) => e.target === e.currentTarget && onClose()}>
       <div
         ref={ref}
         role="dialog"
@@ -21,7 +22,7 @@ export function HelpDialog({ store, onClose }: { store: AnnotationStore; onClose
             onClose();
           }
         }}
-        className="max-h-full w-full max-w-2xl overflow-y-auto rounded-lg bg-white p-6 shadow-xl focus:outline-none"
+        className="max-h-full w-full max-w-2xl overflow-y-auto rounded-lg bg-white p-4 shadow-xl focus:outline-none sm:p-6"
       >
         <div className="flex items-center justify-between">
           <h2 id="help-title" className="text-lg font-semibold">
@@ -48,7 +49,9 @@ export function HelpDialog({ store, onClose }: { store: AnnotationStore; onClose
               <p className="text-sm font-semibold">
                 {t.name} {t.hotkey ? <kbd className="ml-1 font-mono text-xs text-ink-500">{t.hotkey}</kbd> : null}
               </p>
-              <p className="mt-1 text-sm whitespace-pre-wrap text-ink-800">{t.guideline || "No guideline written for this type yet."}</p>
+              <div className="mt-1">
+                <GuidelineText source={t.guideline} />
+              </div>
             </div>
           ))}
         </div>

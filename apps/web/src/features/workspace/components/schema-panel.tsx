@@ -1,3 +1,4 @@
+import { GuidelineText } from "@/components/markdown/guideline-text";
 import { cn } from "@/lib/cn";
 import { useSpansVersion } from "../hooks/use-store";
 import type { AnnotationStore } from "../lib/annotation-store";
@@ -45,9 +46,9 @@ export function SchemaPanel({ store, openGuideline, onGuideline }: { store: Anno
               </button>
             </div>
             {openGuideline === t.name ? (
-              <p className="mx-1 mb-2 rounded-md border-l-4 bg-paper px-3 py-2 text-sm whitespace-pre-wrap text-ink-800" style={{ borderColor: t.color }}>
-                {t.guideline || "No guideline written for this type yet."}
-              </p>
+              <div className="mx-1 mb-2 rounded-md border-l-4 bg-paper px-3 py-2" style={{ borderColor: t.color }} data-testid="guideline">
+                <GuidelineText source={t.guideline} />
+              </div>
             ) : null}
           </li>
         ))}

@@ -1,15 +1,16 @@
 import type { SuggestedSpan } from "@tagloom/contracts";
 import { type ReactNode, memo, useSyncExternalStore } from "react";
+import { SpanMark, UNKNOWN_TYPE_COLOR } from "@/components/spans";
 import { cn } from "@/lib/cn";
 import { type AnnotationStore, type WorkSpan, spanKey } from "../lib/annotation-store";
 
-type Props = { store: AnnotationStore; index: number; colors: ReadonlyMap<string, string> };
+type Props = { store: AnnotationStore; index: number; colors: ReadonlyMap<string, string>; codes: ReadonlyMap<string, string> };
 
 /**
  * One row of the document (a paragraph or part of one). It subscribes to its own version number
  * in the store, so a change elsewhere in the document never re-renders it.
  */
-export const TextBlock = memo(function TextBlock({ store, index, colors }: Props) {
+export const TextBlock = memo(function TextBlock({ store, index, colors, codes }: Props) {
   useSyncExternalStore(store.subscribe, () => store.blockVersion(index));
   const { doc } = store;
   const block = doc.blocks[index]!;
@@ -57,46 +58,43 @@ export const TextBlock = memo(function TextBlock({ store, index, colors }: Props
       inner.push(token(t));
       t++;
     }
-    const color = colors.get(span.type) ?? "#86a3c2";
-    const continues = span.end > block.end;
+    const color = colors.get(span.type) ?? UNKNOWN_TYPE_COLOR;
+    const code = codes.get(span.type) ?? span.type.slice(0, 4).toUpperCase();
+    const continued = span.start < block.start;
     if ("confidence" in span) {
       const pct = Math.round(span.confidence * 100);
       out.push(
-        <span
+        <SpanMark
           key={`s${span.start}`}
           data-suggestion={spanKey(span)}
-          data-type={span.type}
+          type={span.type}
+          code={code}
+          color={color}
+          suggestion={{ confidence: span.confidence }}
+          continued={continued}
           title={`Suggestion: ${span.type}, ${pct}% confident. Enter accepts, Delete rejects.`}
-          className="cursor-pointer rounded-sm px-0.5"
-          style={{ outline: `1.5px dashed ${color}`, outlineOffset: "1px" }}
+          className="cursor-pointer"
         >
           {inner}
-          {continues ? null : (
-            <span aria-hidden className="ml-1 rounded-sm px-1 align-[1px] text-[10px] font-semibold tracking-wide text-ink-500">
-              {span.type} {pct}%
-            </span>
-          )}
-        </span>,
+        </SpanMark>,
       );
     } else {
       out.push(
-        <mark
+        <SpanMark
           key={`m${span.start}`}
           data-span={spanKey(span)}
-          data-type={span.type}
+          type={span.type}
+          code={code}
+          color={color}
+          continued={continued}
+          note={span.origin === "suggested" ? "accepted suggestion" : undefined}
           title={`${span.type}${span.origin === "suggested" ? " (accepted suggestion)" : ""}: click to change or remove`}
-          className="cursor-pointer rounded-sm px-0.5 text-ink-900"
-          style={{ backgroundColor: `${color}40`, boxShadow: `inset 0 -2px 0 ${color}` }}
+          className="cursor-pointer"
         >
           {inner}
-          {continues ? null : (
-            <span aria-hidden className="ml-1 rounded-sm px-1 align-[1px] text-[10px] font-bold tracking-wide" style={{ color: "#0f1d30", backgroundColor: `${color}66` }}>
-              {span.type}
-            </span>
-          )}
-        </mark>,
+        </SpanMark>,
       );
     }
   }
-  return <p className="m-0 pb-4 leading-8 whitespace-pre-wrap">{out}</p>;
+  return <p className="m-0 pb-4 leading-[2.2] whitespace-pre-wrap">{out}</p>;
 });

@@ -69,7 +69,7 @@ describe("Workspace", () => {
     await waitFor(() => expect(textArea).toHaveFocus());
     await userEvent.keyboard("{Shift>}{ArrowRight}{/Shift}p");
     expect(marks()).toEqual(["PERSON"]);
-    expect(await screen.findByText("All changes saved", {}, { timeout: 3000 })).toBeInTheDocument();
+    expect(await screen.findByText(/^Saved \d/, {}, { timeout: 3000 })).toBeInTheDocument();
     expect(saves).toEqual([{ version: 4, spans: [{ start: 0, end: 10, type: "PERSON", origin: "human" }], dismissedSuggestions: [] }]);
     // An overlapping selection is refused and explained; nothing is saved for it.
     await userEvent.keyboard("{Shift>}{ArrowRight}{/Shift}l");
@@ -122,7 +122,43 @@ describe("Workspace", () => {
     expect(await screen.findByText(/You seem to be offline/, {}, { timeout: 3000 })).toBeInTheDocument();
     fail = false;
     await userEvent.click(screen.getByRole("button", { name: "Retry now" }));
-    expect(await screen.findByText("All changes saved", {}, { timeout: 3000 })).toBeInTheDocument();
+    expect(await screen.findByText(/^Saved \d/, {}, { timeout: 3000 })).toBeInTheDocument();
+  });
+
+  it("says when the work was saved after a reload, and 'Submitted' once submitted", async () => {
+    server.use(http.post(`${URL}/submit`, () => HttpResponse.json({ version: 5, state: "submitted", updatedAt: "2030-01-01T00:00:02.000Z" })));
+    // Opened again after earlier saves (version 4): not "nothing yet" but when it was saved.
+    renderWithProviders(<Workspace orgId={ORG} view={view({ state: "in_progress", spans: [{ start: 0, end: 10, type: "PERSON", origin: "human" }] })} backLink="back" afterSubmit="next" />);
+    const saved = new Intl.DateTimeFormat(undefined, { timeStyle: "short" }).format(new Date("2030-01-01T00:00:00.000Z"));
+    expect(document.querySelector("[data-save-state]")).toHaveTextContent(`Saved ${saved}`);
+    await userEvent.click(screen.getByRole("button", { name: "Submit for review" }));
+    await userEvent.click(screen.getByRole("button", { name: "Submit" }));
+    await waitFor(() => expect(document.querySelector("[data-save-state]")).toHaveTextContent("Submitted"));
+    expect(screen.queryByText(/Nothing to save yet|No changes yet/)).toBeNull();
+  });
+
+  it("says plainly that nothing is saved yet for work never saved", () => {
+    renderWithProviders(<Workspace orgId={ORG} view={view({ version: 0 })} backLink="back" afterSubmit="next" />);
+    expect(document.querySelector("[data-save-state]")).toHaveTextContent("Nothing to save yet");
+  });
+
+  it("renders guidelines as Markdown in the panel and in the ? dialog, dropping raw HTML and script links", async () => {
+    const guideline = "Mark **full names**.\n\n- include titles\n- [bad](javascript:alert(1))\n\n<img src=x onerror=alert(1)>";
+    const types = [{ ...testTypes[0]!, guideline }, testTypes[1]!, testTypes[2]!];
+    renderWithProviders(<Workspace orgId={ORG} view={view({ entityTypes: types })} backLink="back" afterSubmit="next" />);
+    await userEvent.click(screen.getAllByRole("button", { name: "Guide" })[0]!);
+    const panel = screen.getByTestId("guideline");
+    expect(panel.querySelector("strong")).toHaveTextContent("full names");
+    expect(panel.querySelectorAll("li")).toHaveLength(2);
+    expect(panel.textContent).not.toContain("**");
+    expect(panel.querySelector("img")).toBeNull();
+    expect(panel.querySelector("a")?.getAttribute("href") ?? "").not.toMatch(/javascript/i);
+    screen.getByTestId("document-text").focus();
+    await userEvent.keyboard("?");
+    const dialog = await screen.findByRole("dialog");
+    expect(dialog.querySelector("strong")).toHaveTextContent("full names");
+    expect(dialog.textContent).not.toContain("**");
+    expect(dialog.querySelector("img")).toBeNull();
   });
 
   it("is read-only after submission and shows the reviewer's comment when sent back", async () => {

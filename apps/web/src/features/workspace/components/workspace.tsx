@@ -1,7 +1,9 @@
-import { type AssignmentView, assignmentStateLabels } from "@tagloom/contracts";
+import { type AssignmentView, assignmentStateStates } from "@tagloom/contracts";
 import { type ReactNode, useCallback, useEffect, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
+import { DueDate } from "@/components/ui/due-date";
+import { StateBadge } from "@/components/ui/state-badge";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { saveAssignment } from "../api/save-assignment";
@@ -109,13 +111,12 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
           <div className="text-xs text-ink-500">{backLink}</div>
           <h1 className="truncate text-xl font-semibold text-ink-900">{view.document.title}</h1>
           <p className="text-xs text-ink-500">
-            Batch {view.batch.name}
-            {view.batch.dueDate ? ` · due ${view.batch.dueDate}` : ""} · {view.annotator.name} ·{" "}
-            <span className="font-medium text-ink-700">{assignmentStateLabels[state]}</span>
+            Batch {view.batch.name} · {view.batch.dueDate ? <DueDate day={view.batch.dueDate} /> : "no due date"} · {view.annotator.name}{" "}
+            <StateBadge state={assignmentStateStates[state]} className="ml-1" />
           </p>
         </div>
         <div className="ml-auto flex flex-wrap items-center gap-3">
-          {view.canEdit ? <SaveStatusBadge saver={saver} /> : <span className="text-sm text-ink-500">Read-only view</span>}
+          <SaveStatusBadge saver={view.canEdit ? saver : null} state={state} savedBefore={view.version > 0 ? view.updatedAt : null} />
           <UndoRedo store={store} onDone={() => textRef.current?.focus()} />
           {!readOnly ? (
             confirming ? (
