@@ -3,6 +3,7 @@ import express, { type Express } from "express";
 import helmet from "helmet";
 import { pinoHttp } from "pino-http";
 import { sessionMiddleware } from "@/auth/session.middleware";
+import { billingWebhookRouter } from "@/billing/billing.routes";
 import { env } from "@/config/env";
 import { errorMiddleware, notFoundHandler } from "@/errors";
 import { logger } from "@/logger";
@@ -43,6 +44,8 @@ export function createApp(options: AppOptions = {}): Express {
   );
 
   const api = express.Router();
+  // Before the JSON parser: the webhook's signature is checked over the raw body.
+  api.use(billingWebhookRouter);
   api.use(express.json({ limit: "2mb" }));
   api.use(originCheck(["/api/v1/", "/api/billing/webhook"]));
   api.use(sessionMiddleware);

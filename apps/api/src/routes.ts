@@ -4,6 +4,7 @@ import { batchesRouter } from "@/annotation/batches.routes";
 import { reviewRouter } from "@/annotation/review.routes";
 import { auditRouter } from "@/audit/audit.routes";
 import { authRouter } from "@/auth/auth.routes";
+import { billingRouter } from "@/billing/billing.routes";
 import { requireSession } from "@/auth/session.middleware";
 import { corporaRouter } from "@/corpora/corpora.routes";
 import { entityTypesRouter } from "@/corpora/entity-types.routes";
@@ -33,6 +34,7 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(membersRouter);
   org.use(invitationsRouter);
   org.use(auditRouter);
+  org.use(billingRouter);
   org.use(corporaRouter);
   org.use(entityTypesRouter);
   org.use(documentsRouter);

@@ -8,3 +8,4 @@ export * from "./annotation";
 export * from "./annotation-review";
 export * from "./span-rules";
 export * from "./states";
+export * from "./billing";

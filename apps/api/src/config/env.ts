@@ -33,6 +33,17 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(100 * 1024 * 1024),
   UPLOAD_MAX_DOCUMENT_CHARS: z.coerce.number().int().min(1).default(500_000),
+  /** Payments: the SDK's secret key and where its API is (the local fake by default; a real host works unchanged). */
+  STRIPE_SECRET_KEY: z.string().min(1).default("sk_test_tagloom_local"),
+  STRIPE_API_HOST: z.string().min(1).default("127.0.0.1"),
+  STRIPE_API_PORT: z.coerce.number().int().min(1).max(65535).default(2590),
+  STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
+  /** Signing secret of the webhook endpoint /api/billing/webhook. */
+  STRIPE_WEBHOOK_SECRET: z.string().min(1).default("whsec_tagloom_local"),
+  /** The monthly per-seat price the paid plan subscribes to. */
+  STRIPE_SEAT_PRICE: z.string().min(1).default("price_tagloom_seat"),
+  /** Seats (members plus pending invitations) the free plan includes. */
+  BILLING_FREE_SEATS: z.coerce.number().int().min(1).default(5),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

@@ -2,6 +2,7 @@ import { type Invitation, type InvitationPreview, type InvitationStatus, type Ro
 import type { Knex } from "knex";
 import { type Actor, recordAudit } from "@/audit/audit.service";
 import { createLinkToken, hashLinkToken } from "@/auth/tokens";
+import { reserveSeat } from "@/billing/billing.service";
 import { getUserByEmail as findUserByEmail } from "@/auth/users.service";
 import { env } from "@/config/env";
 import { db } from "@/db/knex";
@@ -83,6 +84,8 @@ export async function createInvitation(organizationId: string, input: { email: s
     }
     // An expired invitation that was never accepted or withdrawn gives way to the new one.
     if (pending) await markInvitationRevoked(pending.id, trx);
+    // Every pending invitation holds a seat (402 when none is free).
+    await reserveSeat(organizationId, trx);
     const { token, hash } = createLinkToken();
     const id = await insertInvitation(
       { organizationId, email: input.email, role: input.role, tokenHash: hash, invitedBy: actor.userId, expiresAt: new Date(Date.now() + INVITATION_TTL_MS) },
@@ -104,6 +107,8 @@ export async function resendInvitation(organizationId: string, invitationId: str
     if (!row) throw new NotFoundError("invitation");
     const status = statusOf(row);
     if (status === "accepted" || status === "revoked") throw new InvitationNotUsableError(status);
+    // An expired invitation held no seat; sending it again takes one.
+    if (status === "expired") await reserveSeat(organizationId, trx);
     const { token, hash } = createLinkToken();
     await replaceInvitationToken(row.id, hash, new Date(Date.now() + INVITATION_TTL_MS), trx);
     const fresh = (await findInvitation(organizationId, invitationId, trx))!;

@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { type MailCatcher, startMailCatcher } from "@tagloom/fakes";
+import { type MailCatcher, type PaymentsFake, startMailCatcher, startPaymentsFake } from "@tagloom/fakes";
 import pg from "pg";
 import { afterAll, inject } from "vitest";
 
@@ -23,6 +23,14 @@ process.env.SMTP_PORT = String(catcher.smtpPort);
 process.env.MAIL_CATCHER_URL = catcher.httpUrl;
 (globalThis as { __tagloomMail?: MailCatcher }).__tagloomMail = catcher;
 
+// The payments fake of this file; billing tests point its webhooks at their server.
+const payments = await startPaymentsFake();
+process.env.STRIPE_API_PORT = String(payments.port);
+(globalThis as { __tagloomPayments?: PaymentsFake }).__tagloomPayments = payments;
+// Seats are not what other features test: a roomy free plan unless a file asks for fewer
+// (billing tests set BILLING_FREE_SEATS in vi.hoisted before the app is imported).
+process.env.BILLING_FREE_SEATS ??= "50";
+
 afterAll(async () => {
   // Close what the file opened so the fork can exit; the cluster is removed by the global setup.
   const { stopTestWorkers } = await import("./workers");
@@ -34,4 +42,5 @@ afterAll(async () => {
   await db.destroy();
   await pgPool.end();
   await catcher.stop();
+  await payments.stop();
 });

@@ -56,6 +56,14 @@ export const routeCatalog: CatalogRoute[] = [
   { method: "post", path: (f) => `/orgs/${f.orgId}/invitations/${f.invitationId}/resend`, roles: ADMIN },
   { method: "delete", path: (f) => `/orgs/${f.orgId}/invitations/${f.invitationId}`, roles: ADMIN },
   { method: "get", path: (f) => `/orgs/${f.orgId}/audit`, roles: ADMIN },
+  // Seats and billing (issue 11): admins only. The probes fail validation or find no
+  // subscription (409), so the fixture's billing never changes.
+  { method: "get", path: (f) => `/orgs/${f.orgId}/billing`, roles: ADMIN },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/checkout`, roles: ADMIN, body: () => ({ seats: 60 }), probe: () => ({ seats: 0 }) },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/seats`, roles: ADMIN, body: () => ({ seats: 60 }), probe: () => ({ seats: "many" }) },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/cancel`, roles: ADMIN },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/resume`, roles: ADMIN },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/retry-payment`, roles: ADMIN },
   // Batches, assignments and review (issue 6).
   { method: "get", path: (f) => `/orgs/${f.orgId}/batches`, roles: MANAGER },
   { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches`, roles: MANAGER },
