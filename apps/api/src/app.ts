@@ -10,6 +10,7 @@ import { logger } from "@/logger";
 import { buildApiRoutes } from "@/routes";
 import { originCheck } from "@/security/origin-check";
 import { authRateLimit } from "@/security/rate-limits";
+import { noStore, refuseInvalidUtf8, refuseUnstorableText } from "@/security/text-guard";
 import { mountWebApp } from "@/web-static";
 
 export type AppOptions = {
@@ -44,9 +45,11 @@ export function createApp(options: AppOptions = {}): Express {
   );
 
   const api = express.Router();
+  api.use(noStore);
   // Before the JSON parser: the webhook's signature is checked over the raw body.
   api.use(billingWebhookRouter);
-  api.use(express.json({ limit: "2mb" }));
+  api.use(express.json({ limit: "2mb", verify: refuseInvalidUtf8 }));
+  api.use(refuseUnstorableText);
   api.use(originCheck(["/api/v1/", "/api/billing/webhook"]));
   api.use(sessionMiddleware);
   api.use(buildApiRoutes({ authLimiter: authRateLimit(options.authRateLimit ?? env.AUTH_RATE_LIMIT) }));

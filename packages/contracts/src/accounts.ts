@@ -92,12 +92,16 @@ export type InvitationPreview = {
   accountExists: boolean;
 };
 
+/** An instant the database can hold: ISO 8601 with an offset, year 1 or later (PostgreSQL has no year 0). */
+const auditInstantSchema = z.iso.datetime({ offset: true }).refine((v) => !v.startsWith("0000"), "Use a year after 0000.");
+
 export const auditQuerySchema = z.object({
   action: z.string().max(60).optional(),
   actor: z.string().max(254).optional(),
-  from: z.iso.datetime({ offset: true }).optional(),
-  to: z.iso.datetime({ offset: true }).optional(),
-  cursor: z.string().regex(/^\d+$/, "Invalid cursor.").optional(),
+  from: auditInstantSchema.optional(),
+  to: auditInstantSchema.optional(),
+  // An event id (bigint): at most 18 digits, so it always fits.
+  cursor: z.string().regex(/^\d{1,18}$/, "Invalid cursor.").optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;

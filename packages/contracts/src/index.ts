@@ -9,3 +9,4 @@ export * from "./annotation-review";
 export * from "./span-rules";
 export * from "./states";
 export * from "./billing";
+export * from "./text-safety";

@@ -1,3 +1,4 @@
+import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import {
   type AssignmentCounts,
   type AssignmentState,
@@ -63,14 +64,8 @@ async function summarize(organizationId: string, batches: BatchRow[]): Promise<B
 }
 
 function decodeCursor(cursor: string | undefined): { createdAt: string; id: string } | undefined {
-  if (!cursor) return undefined;
-  try {
-    const [createdAt, id] = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8")) as [unknown, unknown];
-    if (typeof createdAt !== "string" || Number.isNaN(Date.parse(createdAt)) || !isUuid(id)) throw new Error("bad cursor");
-    return { createdAt, id };
-  } catch {
-    throw new ValidationError("The cursor is not valid.", { fields: { cursor: ["Invalid cursor."] } });
-  }
+  const c = decodePageCursor(cursor, "timestamp");
+  return c ? { createdAt: String(c.value), id: c.id } : undefined;
 }
 
 /** Batches of the organization, or of one corpus, newest first. */
@@ -85,7 +80,7 @@ export async function getBatchesPage(
   const last = pageRows[pageRows.length - 1];
   return {
     items: await summarize(organizationId, pageRows),
-    nextCursor: more && last ? Buffer.from(JSON.stringify([iso(last.createdAt), last.id])).toString("base64url") : null,
+    nextCursor: more && last ? encodePageCursor(iso(last.createdAt)!, last.id) : null,
   };
 }
 

@@ -1,6 +1,7 @@
 import type { RequestHandler } from "express";
 import { lucia } from "@/auth/lucia";
 import { UnauthorizedError } from "@/errors";
+import { withMeta } from "@/security/route-meta";
 
 /**
  * Reads the session cookie and sets req.auth. A session older than the user's last role change is
@@ -29,10 +30,10 @@ export const sessionMiddleware: RequestHandler = async (req, res, next) => {
 };
 
 /** Rejects requests without a signed-in user (401). */
-export const requireSession: RequestHandler = (req, _res, next) => {
+export const requireSession: RequestHandler = withMeta((req, _res, next) => {
   if (!req.auth) throw new UnauthorizedError();
   next();
-};
+}, { auth: "session", roles: "signed-in" });
 
 /** Starts a new session for a user and sets its cookie; ends the session the request came with. */
 export async function startSession(

@@ -1,9 +1,10 @@
+import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import type { Member, Page, Role } from "@tagloom/contracts";
 import { type Actor, recordAudit } from "@/audit/audit.service";
 import { endUserSessions, rotateUserSessions } from "@/auth/sessions.service";
 import { db as defaultDb } from "@/db/knex";
 import { type Db, iso } from "@/db/types";
-import { ConflictError, NotFoundError, ValidationError } from "@/errors";
+import { ConflictError, NotFoundError } from "@/errors";
 import {
   type MembershipRow,
   deleteMembership,
@@ -38,14 +39,8 @@ export function getMembersByIds(organizationId: string, userIds: string[], db?: 
 const toMember = (m: MembershipRow): Member => ({ userId: m.userId, name: m.name, email: m.email, role: m.role, joinedAt: iso(m.createdAt)! });
 
 function decodeCursor(cursor: string | undefined): { name: string; userId: string } | undefined {
-  if (!cursor) return undefined;
-  try {
-    const [name, userId] = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8")) as [string, string];
-    if (typeof name !== "string" || typeof userId !== "string") throw new Error("bad cursor");
-    return { name, userId };
-  } catch {
-    throw new ValidationError("The cursor is not valid.", { fields: { cursor: ["Invalid cursor."] } });
-  }
+  const c = decodePageCursor(cursor, "text", "text");
+  return c ? { name: String(c.value), userId: c.id } : undefined;
 }
 
 export async function getMembersPage(organizationId: string, page: { cursor?: string | undefined; limit: number }): Promise<Page<Member>> {
@@ -53,7 +48,7 @@ export async function getMembersPage(organizationId: string, page: { cursor?: st
   const more = rows.length > page.limit;
   const items = (more ? rows.slice(0, page.limit) : rows).map(toMember);
   const last = items[items.length - 1];
-  return { items, nextCursor: more && last ? Buffer.from(JSON.stringify([last.name, last.userId])).toString("base64url") : null };
+  return { items, nextCursor: more && last ? encodePageCursor(last.name, last.userId) : null };
 }
 
 async function assertNotLastAdmin(organizationId: string, userId: string, trx: Db): Promise<void> {

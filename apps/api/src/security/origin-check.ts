@@ -22,9 +22,16 @@ export function originCheck(exemptPrefixes: readonly string[]): RequestHandler {
   const publicOrigin = new URL(env.publicUrl).origin;
   return (req, _res, next) => {
     if (SAFE.has(req.method) || exemptPrefixes.some((p) => req.originalUrl.startsWith(p))) return next();
-    const origin = originOf(req.get("origin")) ?? originOf(req.get("referer"));
+    const rawOrigin = req.get("origin");
+    const rawReferer = req.get("referer");
+    const origin = originOf(rawOrigin) ?? (rawOrigin === undefined ? originOf(rawReferer) : null);
     const own = `${req.protocol}://${req.get("host")}`;
     if (origin && (origin === own || origin === publicOrigin)) return next();
-    throw new ForbiddenError(origin ? `Requests from ${origin} are not accepted.` : "The request has no Origin header.");
+    if (rawOrigin === undefined && rawReferer === undefined) {
+      throw new ForbiddenError("The request has no Origin header; changes are accepted only from this service's own pages.");
+    }
+    // Printable ASCII only, and short: the header is the caller's text.
+    const shown = (origin ?? rawOrigin ?? rawReferer ?? "").replace(/[^\x20-\x7e]/g, "?").slice(0, 100);
+    throw new ForbiddenError(`Requests from origin "${shown}" are not allowed: changes are accepted only from this service's own pages.`);
   };
 }

@@ -2,7 +2,7 @@ import { fileListQuerySchema, pageQuerySchema } from "@tagloom/contracts";
 import { type RequestHandler, Router } from "express";
 import multer from "multer";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
-import { PayloadTooLargeError, ValidationError, parseOrThrow } from "@/errors";
+import { AppError, PayloadTooLargeError, ValidationError, parseOrThrow } from "@/errors";
 import { actorOf, allow, anyMember, memberOf, viewCorpusData } from "@/orgs/org-access";
 import { getUploadLimits } from "./upload-limits";
 import { type ReceivedFile, boundedMemoryStorage, formatBytes } from "./upload-storage";
@@ -39,7 +39,14 @@ const receiveFiles: RequestHandler = (req, res, next) => {
       }
       return;
     }
-    next(err as Error | undefined);
+    if (err === undefined || err instanceof AppError) {
+      next(err);
+      return;
+    }
+    // busboy's parse errors (a truncated body, no boundary, a broken part header) are the
+    // client's malformed request, never ours: a 400 that names what busboy found.
+    const detail = err instanceof Error ? err.message : String(err);
+    next(new ValidationError(`The upload form is malformed (${detail}). Send it again as multipart/form-data.`, { fields: { files: ["Malformed multipart body."] } }));
   });
 };
 

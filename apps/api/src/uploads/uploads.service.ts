@@ -1,7 +1,7 @@
 import { createHash } from "node:crypto";
 import { isUtf8 } from "node:buffer";
 import type { FilePage, FileListQuery, Page, Upload, UploadFile, UploadFormat, UploadOptions, UploadResult } from "@tagloom/contracts";
-import { uploadExtensions, uploadOptionsSchema } from "@tagloom/contracts";
+import { unstorableTextReason, uploadExtensions, uploadOptionsSchema } from "@tagloom/contracts";
 import { type Actor, recordAudit } from "@/audit/audit.service";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
 import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
@@ -34,6 +34,10 @@ export type ExtractJobData = { organizationId: string; corpusId: string; uploadI
 
 const TEXT_FORMATS: ReadonlySet<UploadFormat> = new Set(["txt", "jsonl", "conll"]);
 
+// NUL and unpaired surrogate halves (the u flag makes a proper pair one code point).
+// eslint-disable-next-line no-control-regex -- NUL is exactly what is matched
+const UNSTORABLE_CHARS = /\u0000|[\uD800-\uDFFF]/gu;
+
 /** The file name without any folder part a browser may send, at most 255 characters. */
 function cleanFilename(name: string): string {
   const base = name.split(/[\\/]/).pop()?.trim() ?? "";
@@ -46,7 +50,11 @@ function cleanFilename(name: string): string {
  * ZIP header for DOCX). Returns the format and, when refused, the reason.
  */
 export function precheckFile(file: ReceivedFile, maxFileBytes: number): { filename: string; format: UploadFormat | null; refusal: string | null } {
-  const filename = cleanFilename(file.originalname);
+  const nameProblem = unstorableTextReason(file.originalname);
+  // A name the database cannot hold is kept with U+FFFD in place of the bad characters, and the
+  // file is refused alone: the other files of the upload go ahead.
+  const filename = cleanFilename(nameProblem ? file.originalname.replace(UNSTORABLE_CHARS, "\uFFFD") : file.originalname);
+  if (nameProblem) return { filename, format: null, refusal: `has a name the service cannot keep (${nameProblem.replace(/^Text/, "it").replace(/\.$/, "")}); rename the file and upload it again` };
   const dot = filename.lastIndexOf(".");
   const ending = dot >= 0 ? filename.slice(dot).toLowerCase() : "";
   const format = uploadExtensions[ending] ?? null;

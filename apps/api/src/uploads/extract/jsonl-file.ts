@@ -1,4 +1,4 @@
-import { type FileProblem, jsonlLineSchema } from "@tagloom/contracts";
+import { type FileProblem, findUnstorableText, jsonlLineSchema } from "@tagloom/contracts";
 import { findSpanProblems } from "@/documents/span-checks";
 import { decodeUtf8 } from "./text-file";
 import { type ExtractContext, type ExtractedDocument, FileRefusal, MAX_LISTED_PROBLEMS, checkDocumentText, titleFromFilename } from "./refusal";
@@ -30,6 +30,12 @@ export function extractJsonlFile(bytes: Uint8Array, ctx: ExtractContext): Extrac
       value = JSON.parse(raw);
     } catch (err) {
       report(line, `not valid JSON (${(err as Error).message})`);
+      return;
+    }
+    // NUL and lone surrogates in any field (a title, a type) would be refused by the database.
+    const unstorable = findUnstorableText(value);
+    if (unstorable.length) {
+      for (const p of unstorable) report(line, `${p.path === "_" ? "" : `${p.path}: `}${p.message}`);
       return;
     }
     const parsed = jsonlLineSchema.safeParse(value);
