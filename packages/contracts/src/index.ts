@@ -10,3 +10,4 @@ export * from "./span-rules";
 export * from "./states";
 export * from "./billing";
 export * from "./text-safety";
+export * from "./training";
