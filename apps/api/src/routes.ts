@@ -1,4 +1,5 @@
 import { type RequestHandler, Router } from "express";
+import { apiTokensRouter } from "@/api-tokens/api-tokens.routes";
 import { assignmentsRouter } from "@/annotation/assignments.routes";
 import { batchesRouter } from "@/annotation/batches.routes";
 import { reviewRouter } from "@/annotation/review.routes";
@@ -41,6 +42,7 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(batchesRouter);
   org.use(assignmentsRouter);
   org.use(reviewRouter);
+  org.use(apiTokensRouter);
   org.use(orgRouter);
   api.use("/orgs/:orgId", requireSession, orgScope, org);
   return api;

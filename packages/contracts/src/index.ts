@@ -7,3 +7,4 @@ export * from "./documents";
 export * from "./annotation";
 export * from "./annotation-review";
 export * from "./span-rules";
+export * from "./suggestions";
