@@ -30,6 +30,7 @@ const orgRoutes: RouteObject[] = [
   { path: "members", element: <MembersRoute /> },
   { path: "audit", lazy: screen(() => import("./routes/audit"), "AuditRoute") },
   { path: "settings", element: <OrgSettingsRoute /> },
+  { path: "tokens", lazy: screen(() => import("./routes/api-tokens"), "ApiTokensRoute") },
   { path: "corpora", lazy: screen(() => import("./routes/corpora"), "CorporaRoute") },
   {
     path: "corpora/:corpusId",

@@ -27,6 +27,7 @@ export const paths = {
     audit: { path: "/o/:orgId/audit", build: (orgId: string) => `/o/${orgId}/audit` },
     billing: { path: "/o/:orgId/billing", build: (orgId: string) => `/o/${orgId}/billing` },
     settings: { path: "/o/:orgId/settings", build: (orgId: string) => `/o/${orgId}/settings` },
+    apiTokens: { path: "/o/:orgId/tokens", build: (orgId: string) => `/o/${orgId}/tokens` },
     newBatch: {
       path: "/o/:orgId/batches/new",
       build: (orgId: string, opts: { corpusId?: string; documentIds?: string[] } = {}) => {

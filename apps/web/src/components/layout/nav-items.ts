@@ -22,6 +22,7 @@ export const navSections: { title: string; items: NavItem[] }[] = [
       { label: "Members", to: paths.org.members.build },
       { label: "Audit log", to: paths.org.audit.build, ability: "viewAudit" },
       { label: "Billing", to: paths.org.billing.build, ability: "manageBilling" },
+      { label: "API tokens", to: paths.org.apiTokens.build, ability: "manageTokens" },
       { label: "Settings", to: paths.org.settings.build, ability: "manageMembers" },
     ],
   },
