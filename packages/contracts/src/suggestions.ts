@@ -61,8 +61,13 @@ export type SuggestionRun = {
 /** How annotators judged the suggester's suggestions: precision = accepted / (accepted + rejected). */
 export type SuggesterJudgement = { accepted: number; rejected: number; precision: number | null };
 
+/** A tagger of the corpus that can be picked as its suggester. */
+export type SuggesterCandidate = { id: string; version: number; name: string; createdAt: string; f1: number | null };
+
 export type SuggesterStatus = {
   tagger: { id: string; version: number; name: string } | null;
+  /** The corpus's finished taggers, newest first. */
+  candidates: SuggesterCandidate[];
   changedAt: string | null;
   runs: SuggestionRun[];
   judgement: SuggesterJudgement;

@@ -39,6 +39,8 @@ const orgRoutes: RouteObject[] = [
       { index: true, lazy: screen(() => import("./routes/corpus-documents"), "CorpusDocumentsRoute") },
       { path: "schema", lazy: screen(() => import("./routes/corpus-schema"), "CorpusSchemaRoute") },
       { path: "uploads", lazy: screen(() => import("./routes/corpus-uploads"), "CorpusUploadsRoute") },
+      { path: "suggester", lazy: screen(() => import("./routes/corpus-suggester"), "CorpusSuggesterRoute") },
+      { path: "uncertain", lazy: screen(() => import("./routes/corpus-uncertain"), "CorpusUncertainRoute") },
       { path: "settings", lazy: screen(() => import("./routes/corpus-settings"), "CorpusSettingsRoute") },
     ],
   },

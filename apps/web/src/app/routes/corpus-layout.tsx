@@ -25,6 +25,8 @@ export function CorpusLayoutRoute() {
     { label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true },
     { label: "Entity schema", to: paths.org.corpusSchema.build(orgId, corpusId) },
     { label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) },
+    { label: "Suggester", to: paths.org.corpusSuggester.build(orgId, corpusId) },
+    ...(can(org.role, "manageBatches") || can(org.role, "train") ? [{ label: "Most uncertain", to: paths.org.corpusUncertain.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
   ];
   return (
