@@ -135,7 +135,12 @@ export const abilities = {
   manageBatches: ["admin", "manager"],
   review: ["admin", "manager"],
   annotate: ["admin", "manager", "data_lead", "annotator"],
+  /** Start, cancel and repeat training runs; choose the corpus's suggester. */
   train: ["admin", "data_lead"],
+  /** See runs, taggers and comparisons read-only (managers follow the data lead's work). */
+  viewTraining: ["admin", "manager", "data_lead"],
+  /** Download a tagger and its evaluation. */
+  downloadTaggers: ["admin", "data_lead"],
   exportData: ["admin", "manager", "data_lead"],
   manageTokens: ["admin", "data_lead"],
 } as const satisfies Record<string, readonly Role[]>;

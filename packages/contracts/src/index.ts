@@ -7,4 +7,5 @@ export * from "./documents";
 export * from "./annotation";
 export * from "./annotation-review";
 export * from "./span-rules";
+export * from "./training";
 export * from "./suggestions";

@@ -101,7 +101,8 @@ export async function upsertGoldSpans(
   await db("document_gold")
     .insert({ document_id: documentId, organization_id: organizationId, spans: JSON.stringify(spans), source, updated_by: userId })
     .onConflict("document_id")
-    .merge({ spans: JSON.stringify(spans), source, updated_by: userId, updated_at: db.fn.now() });
+    // Every write of gold is a new version: a training run records the version it read.
+    .merge({ spans: JSON.stringify(spans), source, updated_by: userId, updated_at: db.fn.now(), version: db.raw("document_gold.version + 1") });
 }
 
 export async function findSuggestedSpans(organizationId: string, documentId: string, db: Db = defaultDb): Promise<StoredSpan[] | null> {
@@ -134,7 +135,7 @@ export async function removeSpansOfType(table: SpanTable, organizationId: string
   await db.raw(
     `UPDATE ?? t SET spans = coalesce(
        (SELECT jsonb_agg(e.s ORDER BY e.ord) FROM jsonb_array_elements(t.spans) WITH ORDINALITY AS e(s, ord) WHERE e.s->>'typeId' <> ?),
-       '[]'::jsonb)
+       '[]'::jsonb)${table === "document_gold" ? ", version = t.version + 1" : ""}
      WHERE t.organization_id = ? AND t.spans @> ?::jsonb`,
     [table, typeId, organizationId, JSON.stringify([{ typeId }])],
   );
