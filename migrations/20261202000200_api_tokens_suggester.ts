@@ -4,7 +4,8 @@ import type { Knex } from "knex";
 // visible prefix so that people can recognise a token in the list), the corpus's suggester (the
 // tagger that pre-annotates its documents), suggestion runs (one per suggester change or batch of
 // new documents, counted in shards like training) and the record of what annotators did with
-// tagger suggestions (accepted or rejected), from which the suggester's precision is computed.
+// tagger suggestions (accepted or rejected), from which the suggester's precision is computed,
+// and the suggester's uncertainty about each document without gold.
 export async function up(knex: Knex): Promise<void> {
   const tenant = (t: Knex.CreateTableBuilder) =>
     t.uuid("organization_id").notNullable().references("id").inTable("organizations").onDelete("CASCADE");
@@ -63,10 +64,25 @@ export async function up(knex: Knex): Promise<void> {
     t.unique(["assignment_id", "start", "end", "type_id"]);
     t.index(["corpus_id", "tagger_id"]);
   });
+  // The suggester's uncertainty about each document without gold (written by the suggestion job
+  // beside the suggestions; the "most uncertain" ranking reads it in index order).
+  await knex.schema.createTable("document_uncertainty", (t) => {
+    t.uuid("document_id").primary().references("id").inTable("documents").onDelete("CASCADE");
+    tenant(t);
+    t.uuid("corpus_id").notNullable().references("id").inTable("corpora").onDelete("CASCADE");
+    t.uuid("tagger_id").notNullable();
+    t.double("mean_entropy").notNullable();
+    t.double("least_confidence").notNullable();
+    t.integer("spans").notNullable();
+    t.specificType("span_confidences", "double precision[]").notNullable();
+    t.timestamp("scored_at", { useTz: true }).notNullable().defaultTo(knex.fn.now());
+    t.index(["corpus_id", "tagger_id", "mean_entropy"]);
+  });
   await knex.raw("ALTER TABLE suggestion_decisions ADD CONSTRAINT suggestion_decisions_check CHECK (decision IN ('accepted','rejected'))");
 }
 
 export async function down(knex: Knex): Promise<void> {
+  await knex.schema.dropTableIfExists("document_uncertainty");
   await knex.schema.dropTableIfExists("suggestion_decisions");
   await knex.schema.alterTable("corpora", (t) => {
     t.dropColumn("suggester_run_id");

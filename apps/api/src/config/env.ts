@@ -33,6 +33,9 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(100 * 1024 * 1024),
   UPLOAD_MAX_DOCUMENT_CHARS: z.coerce.number().int().min(1).default(500_000),
+  /** Tagging API (/api/v1): requests allowed per token per window, and the window in seconds (per API process). */
+  TAGGING_RATE_LIMIT: z.coerce.number().int().min(1).default(600),
+  TAGGING_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(60),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

@@ -107,6 +107,15 @@ function suggesterRoutes(): CatalogRoute[] {
     { method: "get", path: (f) => `/orgs/${f.orgId}/tokens`, roles: LEAD },
     { method: "post", path: (f) => `/orgs/${f.orgId}/tokens`, roles: LEAD, body: () => ({ name: "Intruder token" }), probe: () => ({ name: "" }) },
     { method: "delete", path: (f) => `/orgs/${f.orgId}/tokens/${f.ids.apiTokenId}`, roles: LEAD },
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/suggester`, roles: ALL },
+    {
+      method: "put",
+      path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/suggester`,
+      roles: LEAD,
+      body: (f) => ({ taggerId: f.ids.taggerId }),
+      probe: () => ({ taggerId: "not-a-tagger" }),
+    },
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/uncertain`, roles: ["admin", "manager", "data_lead"] },
   ];
 }
 

@@ -1,0 +1,46 @@
+import type { SuggesterCandidate } from "@tagloom/contracts";
+import { type TaggerModel, loadModel } from "@tagloom/tagger";
+import type { Db } from "@/db/types";
+import { NotFoundError } from "@/errors";
+import { getTagger, getTaggerModelText, listTaggers } from "@/training/taggers.service";
+
+/** What the suggester needs to know about a tagger. */
+export type SuggesterTagger = { id: string; corpusId: string; version: number; name: string };
+
+/** A tagger of the corpus, or null (unknown, another corpus's, or another organization's). */
+export async function findCorpusTagger(organizationId: string, corpusId: string, taggerId: string, db?: Db): Promise<SuggesterTagger | null> {
+  try {
+    const t = await getTagger(organizationId, corpusId, taggerId, db);
+    return { id: t.id, corpusId: t.corpusId, version: t.version, name: t.label };
+  } catch (err) {
+    if (err instanceof NotFoundError) return null;
+    throw err;
+  }
+}
+
+/** The corpus's taggers that can suggest, newest first (the 100 newest). */
+export async function listCorpusTaggers(organizationId: string, corpusId: string): Promise<SuggesterCandidate[]> {
+  const page = await listTaggers(organizationId, corpusId, { limit: 100 });
+  return page.items.map((t) => ({ id: t.id, version: t.version, name: t.label, createdAt: t.createdAt, f1: t.evaluation.documents > 0 ? t.evaluation.overall.f1 : null }));
+}
+
+// Taggers are immutable, so a loaded model stays valid for the life of the process. A few are
+// kept (least recently used leave first) so that one process can serve several corpora.
+const MAX_MODELS = 16;
+const models = new Map<string, Promise<TaggerModel>>();
+
+/** The tagger's model, parsed once per process. */
+export function loadTaggerModel(organizationId: string, corpusId: string, taggerId: string): Promise<TaggerModel> {
+  const key = `${organizationId}:${taggerId}`;
+  const cached = models.get(key);
+  if (cached) {
+    models.delete(key);
+    models.set(key, cached);
+    return cached;
+  }
+  const loading = getTaggerModelText(organizationId, corpusId, taggerId).then((text) => loadModel(JSON.parse(text)));
+  loading.catch(() => models.delete(key));
+  models.set(key, loading);
+  while (models.size > MAX_MODELS) models.delete(models.keys().next().value!);
+  return loading;
+}
