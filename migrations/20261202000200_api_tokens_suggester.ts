@@ -27,7 +27,7 @@ export async function up(knex: Knex): Promise<void> {
     t.uuid("id").primary().defaultTo(knex.raw("gen_random_uuid()"));
     tenant(t);
     t.uuid("corpus_id").notNullable().references("id").inTable("corpora").onDelete("CASCADE");
-    t.uuid("tagger_id").notNullable();
+    t.uuid("tagger_id").notNullable().references("id").inTable("taggers").onDelete("CASCADE");
     t.text("reason").notNullable(); // suggester_changed | new_documents
     t.integer("shards_total").notNullable().defaultTo(0);
     t.integer("shards_done").notNullable().defaultTo(0);
@@ -41,7 +41,7 @@ export async function up(knex: Knex): Promise<void> {
   });
 
   await knex.schema.alterTable("corpora", (t) => {
-    t.uuid("suggester_tagger_id");
+    t.uuid("suggester_tagger_id").references("id").inTable("taggers").onDelete("SET NULL");
     t.timestamp("suggester_changed_at", { useTz: true });
     // The run of the current suggester; a shard of an older run writes nothing.
     t.uuid("suggester_run_id");
@@ -70,7 +70,7 @@ export async function up(knex: Knex): Promise<void> {
     t.uuid("document_id").primary().references("id").inTable("documents").onDelete("CASCADE");
     tenant(t);
     t.uuid("corpus_id").notNullable().references("id").inTable("corpora").onDelete("CASCADE");
-    t.uuid("tagger_id").notNullable();
+    t.uuid("tagger_id").notNullable().references("id").inTable("taggers").onDelete("CASCADE");
     t.double("mean_entropy").notNullable();
     t.double("least_confidence").notNullable();
     t.integer("spans").notNullable();
