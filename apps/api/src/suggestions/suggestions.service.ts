@@ -199,7 +199,8 @@ export async function recordSuggestionDecisions(
   await upsertDecisions({ ...a, taggerId: suggestions.taggerId }, decisions);
 }
 
-/** The id of the corpus's suggester tagger, or null. */
-export async function getCorpusSuggesterId(organizationId: string, corpusId: string): Promise<string | null> {
-  return (await findSuggester(organizationId, corpusId))?.taggerId ?? null;
+/** The corpus's suggester tagger id (null: none chosen), or null when the organization has no such corpus. */
+export async function getCorpusSuggester(organizationId: string, corpusId: string): Promise<{ taggerId: string | null } | null> {
+  const row = await findSuggester(organizationId, corpusId);
+  return row ? { taggerId: row.taggerId } : null;
 }

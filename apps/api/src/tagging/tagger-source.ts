@@ -24,23 +24,34 @@ export async function listCorpusTaggers(organizationId: string, corpusId: string
   return page.items.map((t) => ({ id: t.id, version: t.version, name: t.label, createdAt: t.createdAt, f1: t.evaluation.documents > 0 ? t.evaluation.overall.f1 : null }));
 }
 
-// Taggers are immutable, so a loaded model stays valid for the life of the process. A few are
+// Taggers are immutable, so a loaded tagger stays valid for the life of the process. A few are
 // kept (least recently used leave first) so that one process can serve several corpora.
 const MAX_MODELS = 16;
-const models = new Map<string, Promise<TaggerModel>>();
+type Loaded = { tagger: SuggesterTagger; model: TaggerModel };
+const loaded = new Map<string, Promise<Loaded>>();
 
-/** The tagger's model, parsed once per process. */
-export function loadTaggerModel(organizationId: string, corpusId: string, taggerId: string): Promise<TaggerModel> {
-  const key = `${organizationId}:${taggerId}`;
-  const cached = models.get(key);
+/** The corpus's tagger and its parsed model, read from the database once per process; NotFoundError when it is not the corpus's. */
+export function loadTagger(organizationId: string, corpusId: string, taggerId: string): Promise<Loaded> {
+  const key = `${organizationId}:${corpusId}:${taggerId}`;
+  const cached = loaded.get(key);
   if (cached) {
-    models.delete(key);
-    models.set(key, cached);
+    loaded.delete(key);
+    loaded.set(key, cached);
     return cached;
   }
-  const loading = getTaggerModelText(organizationId, corpusId, taggerId).then((text) => loadModel(JSON.parse(text)));
-  loading.catch(() => models.delete(key));
-  models.set(key, loading);
-  while (models.size > MAX_MODELS) models.delete(models.keys().next().value!);
+  const loading = (async () => {
+    const tagger = await findCorpusTagger(organizationId, corpusId, taggerId);
+    if (!tagger) throw new NotFoundError("tagger");
+    const model = loadModel(JSON.parse(await getTaggerModelText(organizationId, corpusId, taggerId)));
+    return { tagger, model };
+  })();
+  loading.catch(() => loaded.delete(key));
+  loaded.set(key, loading);
+  while (loaded.size > MAX_MODELS) loaded.delete(loaded.keys().next().value!);
   return loading;
+}
+
+/** The tagger's parsed model (see loadTagger). */
+export async function loadTaggerModel(organizationId: string, corpusId: string, taggerId: string): Promise<TaggerModel> {
+  return (await loadTagger(organizationId, corpusId, taggerId)).model;
 }

@@ -1,9 +1,8 @@
 import { type TagRequest, type TagResponse, taggingLimits } from "@tagloom/contracts";
-import { getCorpus } from "@/corpora/corpora.service";
-import { ConflictError, PayloadTooLargeError } from "@/errors";
-import { getCorpusSuggesterId } from "@/suggestions/suggestions.service";
+import { ConflictError, NotFoundError, PayloadTooLargeError } from "@/errors";
+import { getCorpusSuggester } from "@/suggestions/suggestions.service";
 import { tagText } from "./tag-text";
-import { findCorpusTagger, loadTaggerModel } from "./tagger-source";
+import { loadTagger } from "./tagger-source";
 
 function checkLimits(texts: string[]): void {
   const { maxTexts, maxCharsPerText, maxTotalChars } = taggingLimits;
@@ -19,11 +18,10 @@ function checkLimits(texts: string[]): void {
 export async function tagTextsForToken(organizationId: string, corpusId: string, body: TagRequest): Promise<TagResponse> {
   const texts = body.texts ?? [body.text!];
   checkLimits(texts);
-  await getCorpus(organizationId, corpusId);
-  const taggerId = await getCorpusSuggesterId(organizationId, corpusId);
-  if (!taggerId) throw new ConflictError("This corpus has no suggester: a data lead must pick one of its taggers before the tagging API can use it.", null, "no_suggester");
-  const tagger = await findCorpusTagger(organizationId, corpusId, taggerId);
-  if (!tagger) throw new ConflictError("The corpus's suggester is no longer available; a data lead must pick another tagger.", null, "no_suggester");
-  const model = await loadTaggerModel(organizationId, corpusId, taggerId);
+  // One query per request besides the token's: the suggester's tagger and model are cached.
+  const suggester = await getCorpusSuggester(organizationId, corpusId);
+  if (!suggester) throw new NotFoundError("corpus");
+  if (!suggester.taggerId) throw new ConflictError("This corpus has no suggester: a data lead must pick one of its taggers before the tagging API can use it.", null, "no_suggester");
+  const { tagger, model } = await loadTagger(organizationId, corpusId, suggester.taggerId);
   return { tagger: { id: tagger.id, version: tagger.version }, results: texts.map((t) => ({ spans: tagText(model, t) })) };
 }
