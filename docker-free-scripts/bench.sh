@@ -12,6 +12,8 @@ what="${1:-all}"
 if [ "$what" = all ] || [ "$what" = tagger ]; then
   say "tagger benchmarks"
   (cd "$ROOT/packages/tagger" && "$ROOT/node_modules/.bin/tsx" bench/run.ts)
+  say "tagger benchmark: active learning on wikigold (uncertainty vs random picks)"
+  (cd "$ROOT/packages/tagger" && "$ROOT/node_modules/.bin/tsx" bench/active-learning.ts)
 fi
 if [ "$what" = all ] || [ "$what" = api ]; then
   for f in "$ROOT"/apps/api/bench/*.ts; do

@@ -16,6 +16,8 @@ import { mountWebApp } from "@/web-static";
 export type AppOptions = {
   /** Attempts per address per 15 minutes on sign-in, sign-up and reset (default: AUTH_RATE_LIMIT). */
   authRateLimit?: number;
+  /** Tagging API requests per token per window (default: TAGGING_RATE_LIMIT per TAGGING_RATE_WINDOW_SECONDS). */
+  taggingRateLimit?: { points: number; windowSeconds: number };
 };
 
 /** Builds the Express app (no listen): middleware, routes under /api, the web app, errors. */
@@ -52,7 +54,7 @@ export function createApp(options: AppOptions = {}): Express {
   api.use(refuseUnstorableText);
   api.use(originCheck(["/api/v1/", "/api/billing/webhook"]));
   api.use(sessionMiddleware);
-  api.use(buildApiRoutes({ authLimiter: authRateLimit(options.authRateLimit ?? env.AUTH_RATE_LIMIT) }));
+  api.use(buildApiRoutes({ authLimiter: authRateLimit(options.authRateLimit ?? env.AUTH_RATE_LIMIT), taggingRateLimit: options.taggingRateLimit }));
   api.use(notFoundHandler);
   app.use("/api", api);
 

@@ -1,6 +1,9 @@
 import { type RequestHandler, Router } from "express";
+import { apiTokensRouter } from "@/api-tokens/api-tokens.routes";
 import { assignmentsRouter } from "@/annotation/assignments.routes";
 import { batchesRouter } from "@/annotation/batches.routes";
+import { suggestionsRouter } from "@/suggestions/suggestions.routes";
+import { taggingRouter } from "@/tagging/tagging.routes";
 import { reviewRouter } from "@/annotation/review.routes";
 import { auditRouter } from "@/audit/audit.routes";
 import { authRouter } from "@/auth/auth.routes";
@@ -16,14 +19,17 @@ import { invitationLinkRouter, invitationsRouter } from "@/invitations/invitatio
 import { membersRouter } from "@/members/members.routes";
 import { orgScope } from "@/orgs/org-access";
 import { orgRouter, orgsRouter } from "@/orgs/orgs.routes";
+import type { TaggingRateLimit } from "@/tagging/tagging-rate-limit";
 import { uploadsRouter } from "@/uploads/uploads.routes";
 
 /**
  * Every API route, relative to /api. Tenant routes go on `org`, which is mounted at
  * /orgs/:orgId behind the session and membership checks: add one line per feature router.
  */
-export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router {
+export function buildApiRoutes(options: { authLimiter: RequestHandler; taggingRateLimit?: TaggingRateLimit | undefined }): Router {
   const api = Router();
+  // Pipelines: bearer API tokens only (never the session cookie), exempt from the origin check.
+  api.use("/v1", taggingRouter(options.taggingRateLimit));
   api.use(healthRouter);
   api.use(devRouter);
   api.use(authRouter(options.authLimiter));
@@ -43,6 +49,8 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(batchesRouter);
   org.use(assignmentsRouter);
   org.use(reviewRouter);
+  org.use(apiTokensRouter);
+  org.use(suggestionsRouter);
   org.use(orgRouter);
   api.use("/orgs/:orgId", requireSession, orgScope, org);
   return api;

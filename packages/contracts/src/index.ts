@@ -11,3 +11,4 @@ export * from "./states";
 export * from "./billing";
 export * from "./text-safety";
 export * from "./training";
+export * from "./suggestions";

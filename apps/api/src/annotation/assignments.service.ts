@@ -17,6 +17,7 @@ import { type Db, isUuid, iso } from "@/db/types";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "@/errors";
 import { getDocumentForAnnotation, getDocumentSummaries, getSuggestions, setAnnotationStatus } from "@/documents/documents.service";
 import { getMembership } from "@/members/members.service";
+import { recordSuggestionDecisions } from "@/suggestions/suggestions.service";
 import {
   type AssignmentRow,
   allAssignmentsOfDocumentFinished,
@@ -127,15 +128,17 @@ export async function saveAssignment(
   if (badDismissed >= 0) {
     throw spanFieldError({ index: badDismissed, message: `Dismissed suggestion ${badDismissed + 1} is outside the text or has an unknown type.` }, "dismissedSuggestions");
   }
-  const saved = await saveAssignmentSpans(
-    member.organizationId,
-    assignmentId,
-    member.userId,
-    input.version,
-    storedSpans(input.spans, index),
-    storedSpans(input.dismissedSuggestions, index),
-  );
-  if (saved) return { version: saved.version, state: saved.state, updatedAt: iso(saved.updatedAt)! };
+  const spans = storedSpans(input.spans, index);
+  const dismissed = storedSpans(input.dismissedSuggestions, index);
+  const saved = await saveAssignmentSpans(member.organizationId, assignmentId, member.userId, input.version, spans, dismissed);
+  if (saved) {
+    // Accepted and dismissed tagger suggestions feed the suggester's precision as annotators judged it.
+    await recordSuggestionDecisions(
+      { organizationId: member.organizationId, corpusId: row.corpusId, documentId: row.documentId, assignmentId, userId: member.userId },
+      { accepted: spans.filter((s) => s.origin === "suggested"), dismissed },
+    );
+    return { version: saved.version, state: saved.state, updatedAt: iso(saved.updatedAt)! };
+  }
   const current = await findAssignment(member.organizationId, assignmentId);
   if (!current) throw new NotFoundError("assignment");
   if (!isEditable(current)) {

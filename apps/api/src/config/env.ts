@@ -44,6 +44,9 @@ const envSchema = z.object({
   STRIPE_SEAT_PRICE: z.string().min(1).default("price_tagloom_seat"),
   /** Seats (members plus pending invitations) the free plan includes. */
   BILLING_FREE_SEATS: z.coerce.number().int().min(1).default(5),
+  /** Tagging API (/api/v1): requests allowed per token per window, and the window in seconds (per API process). */
+  TAGGING_RATE_LIMIT: z.coerce.number().int().min(1).default(600),
+  TAGGING_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(60),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

@@ -4,6 +4,7 @@ import { db as defaultDb } from "@/db/knex";
 import { type DocumentToImport, importDocuments, tokenizeDocumentText } from "@/documents/documents.service";
 import { NotFoundError } from "@/errors";
 import { logger } from "@/logger";
+import { suggestForUploadedFiles } from "@/suggestions/suggestions.service";
 import { extractFile } from "./extract/extract-file";
 import { FileRefusal } from "./extract/refusal";
 import { getUploadLimits } from "./upload-limits";
@@ -102,4 +103,6 @@ export async function processFileGroup(data: ExtractJobData): Promise<void> {
       }
     }
   }
+  // The corpus's suggester (if any) pre-annotates the new documents.
+  await suggestForUploadedFiles(organizationId, corpusId, claimed.map((f) => f.id));
 }

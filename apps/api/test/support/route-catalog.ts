@@ -112,7 +112,27 @@ export const routeCatalog: CatalogRoute[] = [
   },
   // Corpora, entity types, documents, uploads and exports (issue 5).
   ...corpusRoutes(),
+  // API tokens, the suggester and the most-uncertain ranking (issue 10).
+  ...suggesterRoutes(),
 ];
+
+function suggesterRoutes(): CatalogRoute[] {
+  const LEAD: readonly Role[] = ["admin", "data_lead"];
+  return [
+    { method: "get", path: (f) => `/orgs/${f.orgId}/tokens`, roles: LEAD },
+    { method: "post", path: (f) => `/orgs/${f.orgId}/tokens`, roles: LEAD, body: () => ({ name: "Intruder token" }), probe: () => ({ name: "" }) },
+    { method: "delete", path: (f) => `/orgs/${f.orgId}/tokens/${f.ids.apiTokenId}`, roles: LEAD },
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/suggester`, roles: ALL },
+    {
+      method: "put",
+      path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/suggester`,
+      roles: LEAD,
+      body: (f) => ({ taggerId: f.ids.taggerId }),
+      probe: () => ({ taggerId: "not-a-tagger" }),
+    },
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/uncertain`, roles: ["admin", "manager", "data_lead"] },
+  ];
+}
 
 function corpusRoutes(): CatalogRoute[] {
   const corpus = (f: TenantFixture) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}`;

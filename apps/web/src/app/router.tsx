@@ -31,6 +31,7 @@ const orgRoutes: RouteObject[] = [
   { path: "members", element: <MembersRoute /> },
   { path: "audit", lazy: screen(() => import("./routes/audit"), "AuditRoute") },
   { path: "settings", element: <OrgSettingsRoute /> },
+  { path: "tokens", lazy: screen(() => import("./routes/api-tokens"), "ApiTokensRoute") },
   { path: "corpora", lazy: screen(() => import("./routes/corpora"), "CorporaRoute") },
   {
     path: "corpora/:corpusId",
@@ -39,6 +40,8 @@ const orgRoutes: RouteObject[] = [
       { index: true, lazy: screen(() => import("./routes/corpus-documents"), "CorpusDocumentsRoute") },
       { path: "schema", lazy: screen(() => import("./routes/corpus-schema"), "CorpusSchemaRoute") },
       { path: "uploads", lazy: screen(() => import("./routes/corpus-uploads"), "CorpusUploadsRoute") },
+      { path: "suggester", lazy: screen(() => import("./routes/corpus-suggester"), "CorpusSuggesterRoute") },
+      { path: "uncertain", lazy: screen(() => import("./routes/corpus-uncertain"), "CorpusUncertainRoute") },
       { path: "settings", lazy: screen(() => import("./routes/corpus-settings"), "CorpusSettingsRoute") },
     ],
   },

@@ -15,6 +15,8 @@ export const paths = {
     corpus: { path: "/o/:orgId/corpora/:corpusId", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}` },
     corpusSchema: { path: "/o/:orgId/corpora/:corpusId/schema", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/schema` },
     corpusUploads: { path: "/o/:orgId/corpora/:corpusId/uploads", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/uploads` },
+    corpusSuggester: { path: "/o/:orgId/corpora/:corpusId/suggester", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/suggester` },
+    corpusUncertain: { path: "/o/:orgId/corpora/:corpusId/uncertain", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/uncertain` },
     corpusSettings: { path: "/o/:orgId/corpora/:corpusId/settings", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/settings` },
     document: {
       path: "/o/:orgId/corpora/:corpusId/documents/:documentId",
@@ -27,6 +29,7 @@ export const paths = {
     audit: { path: "/o/:orgId/audit", build: (orgId: string) => `/o/${orgId}/audit` },
     billing: { path: "/o/:orgId/billing", build: (orgId: string) => `/o/${orgId}/billing` },
     settings: { path: "/o/:orgId/settings", build: (orgId: string) => `/o/${orgId}/settings` },
+    apiTokens: { path: "/o/:orgId/tokens", build: (orgId: string) => `/o/${orgId}/tokens` },
     newBatch: {
       path: "/o/:orgId/batches/new",
       build: (orgId: string, opts: { corpusId?: string; documentIds?: string[] } = {}) => {

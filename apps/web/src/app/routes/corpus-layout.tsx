@@ -27,6 +27,8 @@ export function CorpusLayoutRoute() {
     ...(data ? [{ label: "Documents", to: paths.org.corpus.build(orgId, corpusId), end: true }] : []),
     { label: data ? "Entity schema" : "Entity schema and guidelines", to: paths.org.corpusSchema.build(orgId, corpusId) },
     ...(data ? [{ label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) }] : []),
+    ...(data ? [{ label: "Suggester", to: paths.org.corpusSuggester.build(orgId, corpusId) }] : []),
+    ...(can(org.role, "manageBatches") || can(org.role, "train") ? [{ label: "Most uncertain", to: paths.org.corpusUncertain.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
   ];
   return (

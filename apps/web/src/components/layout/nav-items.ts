@@ -1,7 +1,7 @@
 import type { Ability, Role } from "@tagloom/contracts";
 import { paths } from "@/config/paths";
 
-export type NavArea = "overview" | "queue" | "corpora" | "batches" | "review" | "taggers" | "members" | "audit" | "billing" | "settings";
+export type NavArea = "overview" | "queue" | "corpora" | "batches" | "review" | "taggers" | "members" | "audit" | "billing" | "tokens" | "settings";
 export type NavItem = { area: NavArea; label: string; to: (orgId: string) => string; ability?: Ability; roles?: readonly Role[] };
 
 /** The areas of an organization, in the order of the work; each shows only to roles that can use it. */
@@ -24,6 +24,7 @@ export const navSections: { title: string; items: NavItem[] }[] = [
       { area: "members", label: "Members", to: paths.org.members.build },
       { area: "audit", label: "Audit log", to: paths.org.audit.build, ability: "viewAudit" },
       { area: "billing", label: "Billing", to: paths.org.billing.build, ability: "manageBilling" },
+      { area: "tokens", label: "API tokens", to: paths.org.apiTokens.build, ability: "manageTokens" },
       { area: "settings", label: "Settings", to: paths.org.settings.build, ability: "manageOrganization" },
     ],
   },
@@ -41,6 +42,6 @@ export function areaOf(pathname: string, search = ""): NavArea {
   if (/^\/corpora\/[^/]+\/batches\//.test(rest)) return "batches";
   if (/^\/corpora\/[^/]+\/assignments\//.test(rest)) return new URLSearchParams(search).get("from") === "review" ? "review" : "queue";
   const first = rest.split("/")[1] ?? "";
-  const areas: Record<string, NavArea> = { queue: "queue", corpora: "corpora", batches: "batches", review: "review", taggers: "taggers", members: "members", audit: "audit", billing: "billing", settings: "settings" };
+  const areas: Record<string, NavArea> = { queue: "queue", corpora: "corpora", batches: "batches", review: "review", taggers: "taggers", members: "members", audit: "audit", billing: "billing", tokens: "tokens", settings: "settings" };
   return areas[first] ?? "overview";
 }

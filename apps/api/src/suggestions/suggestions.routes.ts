@@ -1,0 +1,22 @@
+import { setSuggesterInputSchema, uncertainQuerySchema } from "@tagloom/contracts";
+import { Router } from "express";
+import { parseOrThrow } from "@/errors";
+import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
+import { getSuggesterStatus, getUncertainRanking, setSuggester } from "./suggestions.service";
+
+/** The corpus's suggester and the most-uncertain ranking, below /orgs/:orgId. */
+export const suggestionsRouter = Router({ mergeParams: true });
+
+suggestionsRouter.get("/corpora/:corpusId/suggester", anyMember, async (req, res) => {
+  res.json(await getSuggesterStatus(memberOf(req).organizationId, String(req.params.corpusId)));
+});
+
+suggestionsRouter.put("/corpora/:corpusId/suggester", allow("data_lead"), async (req, res) => {
+  const input = parseOrThrow(setSuggesterInputSchema, req.body);
+  res.json(await setSuggester(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
+});
+
+suggestionsRouter.get("/corpora/:corpusId/uncertain", allow("manager", "data_lead"), async (req, res) => {
+  const query = parseOrThrow(uncertainQuerySchema, req.query, "query");
+  res.json(await getUncertainRanking(memberOf(req).organizationId, String(req.params.corpusId), query));
+});

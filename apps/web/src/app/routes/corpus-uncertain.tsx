@@ -1,0 +1,42 @@
+import { can } from "@tagloom/contracts";
+import { useParams } from "react-router";
+import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { paths } from "@/config/paths";
+import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { useUncertainDocuments } from "@/features/suggestions/api/get-uncertain-documents";
+import { UncertainTable } from "@/features/suggestions/components/uncertain-table";
+import { formatCount } from "@/lib/format";
+
+const LIMIT = 100;
+
+/** Documents without gold that the suggester is least sure about: the ones worth labelling next. */
+export function CorpusUncertainRoute() {
+  const org = useCurrentOrg();
+  const { corpusId = "" } = useParams();
+  const orgId = org.organizationId;
+  const ranking = useUncertainDocuments(orgId, corpusId, LIMIT);
+  if (ranking.isPending) return <Spinner />;
+  if (ranking.isError) {
+    if ("code" in ranking.error && ranking.error.code === "no_suggester") return <Notice tone="info">{ranking.error.message}</Notice>;
+    return <Notice tone="error">{ranking.error.message}</Notice>;
+  }
+  const r = ranking.data;
+  return (
+    <div className="space-y-4">
+      <p className="max-w-3xl text-sm text-ink-700">
+        Ranked by the suggester (version {r.tagger.version})'s <strong>mean token entropy</strong>: for each word, how spread its posterior probability is over
+        the tags, averaged over the document (in nats; 0 means sure of every word). Higher means the tagger is less sure, so labelling it teaches the tagger
+        more. Spans under {Math.round(r.threshold * 100)}% confidence count as low-confidence. {formatCount(r.considered)} documents without gold are scored.
+      </p>
+      {r.items.length === 0 ? (
+        <EmptyState title="Nothing to rank yet">Documents appear here once the suggester has tagged them; documents with gold are left out.</EmptyState>
+      ) : (
+        <UncertainTable
+          ranking={r}
+          linkTo={(documentId) => paths.org.document.build(orgId, corpusId, documentId)}
+          batchLink={can(org.role, "manageBatches") ? (documentIds) => paths.org.newBatch.build(orgId, { corpusId, documentIds }) : undefined}
+        />
+      )}
+    </div>
+  );
+}
