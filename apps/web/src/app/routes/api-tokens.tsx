@@ -1,5 +1,5 @@
 import { can } from "@tagloom/contracts";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { CreateTokenForm } from "@/features/api-tokens/components/create-token-form";
 import { TokensTable } from "@/features/api-tokens/components/tokens-table";
 import { useApiTokens } from "@/features/api-tokens/api/get-api-tokens";
@@ -23,7 +23,7 @@ export function ApiTokensRoute() {
         }
       />
       <CreateTokenForm orgId={org.organizationId} />
-      {tokens.isPending ? <Spinner /> : null}
+      {tokens.isPending ? <Skeleton shape="table" /> : null}
       {tokens.isError ? <Notice tone="error">{tokens.error.message}</Notice> : null}
       {tokens.data && tokens.data.items.length === 0 ? <EmptyState title="No tokens yet">Create one for each program that calls the tagging API.</EmptyState> : null}
       {tokens.data && tokens.data.items.length > 0 ? <TokensTable orgId={org.organizationId} tokens={tokens.data.items} /> : null}

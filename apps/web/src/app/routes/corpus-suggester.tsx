@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { useParams } from "react-router";
-import { Notice, Spinner } from "@/components/ui/card";
+import { Notice, Skeleton } from "@/components/ui/card";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useSuggester } from "@/features/suggestions/api/get-suggester";
 import { SuggesterPanel } from "@/features/suggestions/components/suggester-panel";
@@ -10,7 +10,7 @@ export function CorpusSuggesterRoute() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const status = useSuggester(org.organizationId, corpusId);
-  if (status.isPending) return <Spinner />;
+  if (status.isPending) return <Skeleton />;
   if (status.isError) return <Notice tone="error">{status.error.message}</Notice>;
   return (
     <div className="max-w-3xl">

@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { useParams } from "react-router";
-import { EmptyState, Notice, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useUncertainDocuments } from "@/features/suggestions/api/get-uncertain-documents";
@@ -15,7 +15,7 @@ export function CorpusUncertainRoute() {
   const { corpusId = "" } = useParams();
   const orgId = org.organizationId;
   const ranking = useUncertainDocuments(orgId, corpusId, LIMIT);
-  if (ranking.isPending) return <Spinner />;
+  if (ranking.isPending) return <Skeleton shape="table" />;
   if (ranking.isError) {
     if ("code" in ranking.error && ranking.error.code === "no_suggester") return <Notice tone="info">{ranking.error.message}</Notice>;
     return <Notice tone="error">{ranking.error.message}</Notice>;
