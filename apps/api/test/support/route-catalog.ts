@@ -61,9 +61,9 @@ export const routeCatalog: CatalogRoute[] = [
   { method: "get", path: (f) => `/orgs/${f.orgId}/billing`, roles: ADMIN },
   { method: "post", path: (f) => `/orgs/${f.orgId}/billing/checkout`, roles: ADMIN, body: () => ({ seats: 60 }), probe: () => ({ seats: 0 }) },
   { method: "post", path: (f) => `/orgs/${f.orgId}/billing/seats`, roles: ADMIN, body: () => ({ seats: 60 }), probe: () => ({ seats: "many" }) },
-  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/cancel`, roles: ADMIN },
-  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/resume`, roles: ADMIN },
-  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/retry-payment`, roles: ADMIN },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/cancel`, roles: ADMIN, allowedStatus: 409 },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/resume`, roles: ADMIN, allowedStatus: 409 },
+  { method: "post", path: (f) => `/orgs/${f.orgId}/billing/retry-payment`, roles: ADMIN, allowedStatus: 409 },
   // Batches, assignments and review (issue 6).
   { method: "get", path: (f) => `/orgs/${f.orgId}/batches`, roles: MANAGER },
   { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.annotationCorpusId}/batches`, roles: MANAGER },
@@ -130,7 +130,7 @@ function suggesterRoutes(): CatalogRoute[] {
       body: (f) => ({ taggerId: f.ids.taggerId }),
       probe: () => ({ taggerId: "not-a-tagger" }),
     },
-    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/uncertain`, roles: ["admin", "manager", "data_lead"] },
+    { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/uncertain`, roles: ["admin", "manager", "data_lead"], allowedStatus: 409 },
   ];
 }
 
