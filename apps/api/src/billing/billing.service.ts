@@ -21,12 +21,16 @@ import { callPayments, payments } from "./payments-client";
 import { fetchInvoices, toSubscriptionState } from "./provider-state";
 import { hasLiveSubscription, seatLimitOf } from "./seats";
 
+const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+const inUse = (u: { members: number; pendingInvitations: number }) =>
+  `${count(u.members, "member", "members")} and ${count(u.pendingInvitations, "pending invitation", "pending invitations")}`;
+
 export class SeatLimitError extends AppError {
   constructor(details: SeatLimitDetails & { members: number; pendingInvitations: number }) {
     super(
       402,
       "seat_limit_reached",
-      `All ${details.seatLimit} seats are in use (${details.members} members and ${details.pendingInvitations} pending invitations). An admin can add seats on the Billing page.`,
+      `All ${details.seatLimit} seats are in use (${inUse(details)}). An admin can add seats on the Billing page.`,
       { seatsUsed: details.seatsUsed, seatLimit: details.seatLimit, plan: details.plan },
     );
   }
@@ -166,7 +170,7 @@ export async function changeSeats(organizationId: string, seats: number, actor: 
     const used = use.members + use.pendingInvitations;
     if (seats < used) {
       throw new ConflictError(
-        `${used} seats are in use (${use.members} members and ${use.pendingInvitations} pending invitations). Remove members or withdraw invitations before going below ${used} seats.`,
+        `${used} seats are in use (${inUse(use)}). Remove members or withdraw invitations before going below ${used} seats.`,
         { fields: { seats: [`At least ${used}.`] }, seatsUsed: used },
         "seats_in_use",
       );
