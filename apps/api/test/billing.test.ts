@@ -277,4 +277,13 @@ describe("changing a paid subscription", () => {
     await db("billing_accounts").where({ organization_id: admin.orgId }).update({ current_period_end: new Date(Date.now() - 1000) });
     expect(await billing(admin)).toMatchObject({ plan: "free", seatLimit: 3, paymentFailed: true });
   });
+
+  it("deleting a paying organization ends its subscription at the payments service", async () => {
+    const { admin, subscriptionId } = await paidOrganization("Copperbeech Index", 4);
+    const res = await admin.agent.delete(`/api/orgs/${admin.orgId}`).send({ confirmName: "Copperbeech Index" });
+    expect(res.status, JSON.stringify(res.body)).toBe(204);
+    expect((await sdk.subscriptions.retrieve(subscriptionId)).status).toBe("canceled");
+    await fake.settled();
+    expect(fake.deliveries().filter((d) => d.type === "customer.subscription.deleted").at(-1)?.status).toBe(200);
+  });
 });

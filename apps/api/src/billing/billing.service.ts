@@ -4,7 +4,6 @@ import { env } from "@/config/env";
 import { db } from "@/db/knex";
 import { type Db, iso } from "@/db/types";
 import { AppError, ConflictError } from "@/errors";
-import { getOrganization } from "@/orgs/orgs.service";
 import {
   type BillingAccountRow,
   countSeatUse,
@@ -135,8 +134,8 @@ export async function startCheckout(organizationId: string, seats: number, actor
 }
 
 async function createCustomer(organizationId: string): Promise<string> {
-  const org = await getOrganization(organizationId);
-  const customer = await callPayments(() => payments.customers.create({ name: org.name, metadata: { organizationId } }));
+  // Only the organization's id goes to the payments service; it asks the payer for the rest.
+  const customer = await callPayments(() => payments.customers.create({ description: `Tagloom organization ${organizationId}`, metadata: { organizationId } }));
   await saveCustomerId(organizationId, customer.id);
   return customer.id;
 }
@@ -213,4 +212,14 @@ export async function retryPayment(organizationId: string, actor: Actor): Promis
     await recordAudit(trx, actor, organizationId, "billing.payment_retried", { type: "invoice", id: open.id, label: open.number });
   });
   return getBillingState(organizationId);
+}
+
+/**
+ * Ends a live subscription at once before its organization is deleted for good (nobody would be
+ * left to use or cancel it). If the payments service cannot be reached the deletion waits.
+ */
+export async function endBillingOfDeletedOrganization(organizationId: string): Promise<void> {
+  const account = await findBillingAccount(organizationId);
+  if (!hasLiveSubscription(account)) return;
+  await callPayments(() => payments.subscriptions.cancel(account.subscriptionId));
 }
