@@ -9,6 +9,9 @@ export PORT="${PORT:-8080}"
 export PGPORT="${PGPORT:-54329}"
 export SMTP_PORT="${SMTP_PORT:-2525}"
 export MAIL_CATCHER_PORT="${MAIL_CATCHER_PORT:-2580}"
+export PAYMENTS_PORT="${PAYMENTS_PORT:-2590}"
+# The API's payments SDK talks to the local payments fake unless pointed elsewhere.
+export STRIPE_API_PORT="${STRIPE_API_PORT:-$PAYMENTS_PORT}"
 RUN_DIR="$DATA_DIR/run"
 PID_FILE="$RUN_DIR/supervisor.pid"
 LOG_FILE="$RUN_DIR/tagloom.log"
@@ -24,7 +27,7 @@ if [ -f "$PID_FILE" ] && kill -0 "$(cat "$PID_FILE")" 2>/dev/null; then
   bash "$ROOT/docker-free-scripts/stop.sh" --keep-db
 fi
 
-for pair in "PORT:$PORT" "SMTP_PORT:$SMTP_PORT" "MAIL_CATCHER_PORT:$MAIL_CATCHER_PORT"; do
+for pair in "PORT:$PORT" "SMTP_PORT:$SMTP_PORT" "MAIL_CATCHER_PORT:$MAIL_CATCHER_PORT" "PAYMENTS_PORT:$PAYMENTS_PORT"; do
   var="${pair%%:*}"; port="${pair#*:}"
   if port_in_use "$port"; then
     fail "port $port on 127.0.0.1 is taken by another program; choose another with $var=<port> npm start"

@@ -62,7 +62,7 @@ describe("seats on the free plan", () => {
     const refused = await invite(admin);
     expect(refused.status).toBe(402);
     expect(refused.body.error.code).toBe("seat_limit_reached");
-    expect(refused.body.error.message).toMatch(/All 3 seats are in use \(1 members and 2 pending invitations\).*Billing page/);
+    expect(refused.body.error.message).toMatch(/All 3 seats are in use \(1 member and 2 pending invitations\).*Billing page/);
     expect(refused.body.error.details).toEqual({ seatsUsed: 3, seatLimit: 3, plan: "free" });
     expect(await tenantFingerprint(admin.orgId)).toEqual(before);
     expect(await billing(admin)).toMatchObject({ plan: "free", freeSeats: 3, seatLimit: 3, seatsUsed: 3, members: 1, pendingInvitations: 2, subscription: null });
@@ -222,7 +222,7 @@ describe("changing a paid subscription", () => {
     const below = await admin.agent.post(`/api/orgs/${admin.orgId}/billing/seats`).send({ seats: 2 });
     expect(below.status).toBe(409);
     expect(below.body.error.code).toBe("seats_in_use");
-    expect(below.body.error.message).toMatch(/3 seats are in use \(1 members and 2 pending invitations\)/);
+    expect(below.body.error.message).toMatch(/3 seats are in use \(1 member and 2 pending invitations\)/);
 
     const more = await admin.agent.post(`/api/orgs/${admin.orgId}/billing/seats`).send({ seats: 7 });
     expect(more.status, JSON.stringify(more.body)).toBe(200);
@@ -276,5 +276,14 @@ describe("changing a paid subscription", () => {
     }
     await db("billing_accounts").where({ organization_id: admin.orgId }).update({ current_period_end: new Date(Date.now() - 1000) });
     expect(await billing(admin)).toMatchObject({ plan: "free", seatLimit: 3, paymentFailed: true });
+  });
+
+  it("deleting a paying organization ends its subscription at the payments service", async () => {
+    const { admin, subscriptionId } = await paidOrganization("Copperbeech Index", 4);
+    const res = await admin.agent.delete(`/api/orgs/${admin.orgId}`).send({ confirmName: "Copperbeech Index" });
+    expect(res.status, JSON.stringify(res.body)).toBe(204);
+    expect((await sdk.subscriptions.retrieve(subscriptionId)).status).toBe("canceled");
+    await fake.settled();
+    expect(fake.deliveries().filter((d) => d.type === "customer.subscription.deleted").at(-1)?.status).toBe(200);
   });
 });

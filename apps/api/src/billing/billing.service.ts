@@ -4,7 +4,6 @@ import { env } from "@/config/env";
 import { db } from "@/db/knex";
 import { type Db, iso } from "@/db/types";
 import { AppError, ConflictError } from "@/errors";
-import { getOrganization } from "@/orgs/orgs.service";
 import {
   type BillingAccountRow,
   countSeatUse,
@@ -21,12 +20,16 @@ import { callPayments, payments } from "./payments-client";
 import { fetchInvoices, toSubscriptionState } from "./provider-state";
 import { hasLiveSubscription, seatLimitOf } from "./seats";
 
+const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+const inUse = (u: { members: number; pendingInvitations: number }) =>
+  `${count(u.members, "member", "members")} and ${count(u.pendingInvitations, "pending invitation", "pending invitations")}`;
+
 export class SeatLimitError extends AppError {
   constructor(details: SeatLimitDetails & { members: number; pendingInvitations: number }) {
     super(
       402,
       "seat_limit_reached",
-      `All ${details.seatLimit} seats are in use (${details.members} members and ${details.pendingInvitations} pending invitations). An admin can add seats on the Billing page.`,
+      `All ${details.seatLimit} seats are in use (${inUse(details)}). An admin can add seats on the Billing page.`,
       { seatsUsed: details.seatsUsed, seatLimit: details.seatLimit, plan: details.plan },
     );
   }
@@ -131,8 +134,8 @@ export async function startCheckout(organizationId: string, seats: number, actor
 }
 
 async function createCustomer(organizationId: string): Promise<string> {
-  const org = await getOrganization(organizationId);
-  const customer = await callPayments(() => payments.customers.create({ name: org.name, metadata: { organizationId } }));
+  // Only the organization's id goes to the payments service; it asks the payer for the rest.
+  const customer = await callPayments(() => payments.customers.create({ description: `Tagloom organization ${organizationId}`, metadata: { organizationId } }));
   await saveCustomerId(organizationId, customer.id);
   return customer.id;
 }
@@ -166,7 +169,7 @@ export async function changeSeats(organizationId: string, seats: number, actor: 
     const used = use.members + use.pendingInvitations;
     if (seats < used) {
       throw new ConflictError(
-        `${used} seats are in use (${use.members} members and ${use.pendingInvitations} pending invitations). Remove members or withdraw invitations before going below ${used} seats.`,
+        `${used} seats are in use (${inUse(use)}). Remove members or withdraw invitations before going below ${used} seats.`,
         { fields: { seats: [`At least ${used}.`] }, seatsUsed: used },
         "seats_in_use",
       );
@@ -209,4 +212,14 @@ export async function retryPayment(organizationId: string, actor: Actor): Promis
     await recordAudit(trx, actor, organizationId, "billing.payment_retried", { type: "invoice", id: open.id, label: open.number });
   });
   return getBillingState(organizationId);
+}
+
+/**
+ * Ends a live subscription at once before its organization is deleted for good (nobody would be
+ * left to use or cancel it). If the payments service cannot be reached the deletion waits.
+ */
+export async function endBillingOfDeletedOrganization(organizationId: string): Promise<void> {
+  const account = await findBillingAccount(organizationId);
+  if (!hasLiveSubscription(account)) return;
+  await callPayments(() => payments.subscriptions.cancel(account.subscriptionId));
 }

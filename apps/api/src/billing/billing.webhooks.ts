@@ -72,9 +72,14 @@ export async function handleWebhook(rawBody: Buffer, signature: string | undefin
   const checkout = subject.checkoutId ? await callPayments(() => payments.checkout.sessions.retrieve(subject.checkoutId!)) : null;
   const organizationId = account.organizationId;
 
-  return db.transaction(async (trx) => {
-    if (!(await recordWebhookEvent({ id: event.id, type: event.type, organizationId }, trx))) return { received: true, duplicate: true } as const;
-    const before = (await findBillingAccountByCustomer(account.customerId!, trx, true))!;
+  return db.transaction(async (trx): Promise<WebhookResult> => {
+    // Locked first: an organization deleted meanwhile (its account goes with it) is not written to.
+    const before = await findBillingAccountByCustomer(account.customerId!, trx, true);
+    if (!before || before.organizationId !== organizationId) {
+      const fresh = await recordWebhookEvent({ id: event.id, type: event.type, organizationId: null }, trx);
+      return fresh ? { received: true, ignored: true } : { received: true, duplicate: true };
+    }
+    if (!(await recordWebhookEvent({ id: event.id, type: event.type, organizationId }, trx))) return { received: true, duplicate: true };
     if (subscription && idOf(subscription.customer) === account.customerId && mayReplace(before, subscription)) {
       const next = toSubscriptionState(subscription);
       await saveSubscriptionState(organizationId, next, trx);
@@ -96,7 +101,7 @@ export async function handleWebhook(rawBody: Buffer, signature: string | undefin
     if (checkout && checkout.status === "complete" && (await markCheckoutComplete(organizationId, checkout.id, trx))) {
       await recordAudit(trx, SYSTEM, organizationId, "billing.checkout_paid", { type: "checkout", id: checkout.id }, { subscription: idOf(checkout.subscription) });
     }
-    return { received: true } as const;
+    return { received: true };
   });
 }
 

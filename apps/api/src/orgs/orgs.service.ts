@@ -1,4 +1,5 @@
 import { type Actor, recordAudit } from "@/audit/audit.service";
+import { endBillingOfDeletedOrganization } from "@/billing/billing.service";
 import { db } from "@/db/knex";
 import type { Db } from "@/db/types";
 import { NotFoundError, ValidationError } from "@/errors";
@@ -47,6 +48,7 @@ export async function deleteOrganizationForGood(id: string, confirmName: string,
   if (confirmName.trim() !== org.name) {
     throw new ValidationError("Type the organization's name exactly to confirm.", { fields: { confirmName: ["Does not match the name."] } });
   }
+  await endBillingOfDeletedOrganization(id);
   await deleteOrganization(id);
   logger.warn({ organizationId: id, name: org.name, by: actor.email }, "organization deleted for good");
 }

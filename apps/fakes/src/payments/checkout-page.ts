@@ -30,7 +30,7 @@ export function renderCheckoutPage(v: CheckoutPageView): string {
 <style>
   body { font: 16px/1.5 system-ui, sans-serif; margin: 0; background: #f3f1ea; color: #1f2328; }
   .banner { background: #7a2e0e; color: #fff; padding: 12px 20px; font-weight: 600; }
-  main { max-width: 30rem; margin: 40px auto; background: #fff; border: 1px solid #d6d2c4; border-radius: 10px; padding: 24px 28px; }
+  main { max-width: 30rem; width: calc(100% - 32px); box-sizing: border-box; margin: 40px auto; background: #fff; border: 1px solid #d6d2c4; border-radius: 10px; padding: 24px 28px; }
   h1 { font-size: 1.3rem; margin: 0 0 8px; }
   .sum { margin: 16px 0; }
   .declined { background: #fde8e4; border: 1px solid #e2a195; padding: 10px 12px; border-radius: 6px; }

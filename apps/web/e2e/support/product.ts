@@ -2,14 +2,14 @@ import { type ChildProcess, spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
 import path from "node:path";
-import { type MailCatcher, startMailCatcher } from "@tagloom/fakes";
+import { type MailCatcher, type PaymentsFake, startMailCatcher, startPaymentsFake } from "@tagloom/fakes";
 import { type TempPostgres, startTempPostgres } from "../../../../docker-free-scripts/lib/temp-postgres.mjs";
 
 const webDir = path.resolve(import.meta.dirname, "../..");
 const apiDir = path.resolve(webDir, "../api");
 const tsx = path.join(apiDir, "node_modules/.bin/tsx");
 
-export type Product = { baseUrl: string; mailUrl: string; stop: () => Promise<void> };
+export type Product = { baseUrl: string; mailUrl: string; paymentsUrl: string; stop: () => Promise<void> };
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -51,8 +51,9 @@ function stopChild(child: ChildProcess): Promise<void> {
 
 /**
  * Starts the whole product the way `npm start` does, but private to this test run: a throwaway
- * PostgreSQL, the migrations, the mail catcher, the API serving the built web app, and a worker;
- * with `demo`, also the demo organization of `npm start` (its sign-ins are in the README).
+ * PostgreSQL, the migrations, the mail catcher, the payments fake, the API serving the built web
+ * app, and a worker; with `demo`, also the demo organization of `npm start` (its sign-ins are in
+ * the README).
  */
 export async function startProduct(options: { demo?: boolean } = {}): Promise<Product> {
   const dist = path.join(webDir, "dist");
@@ -62,12 +63,14 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
   }
   let pg: TempPostgres | null = null;
   let mail: MailCatcher | null = null;
+  let payments: PaymentsFake | null = null;
   const children: ChildProcess[] = [];
   try {
     pg = await startTempPostgres({ label: "e2e" });
     mail = await startMailCatcher();
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
+    payments = await startPaymentsFake({ webhookUrl: `${baseUrl}/api/billing/webhook` });
     const env = {
       ...process.env,
       NODE_ENV: "development",
@@ -78,6 +81,7 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
       WEB_DIST: dist,
       SMTP_PORT: String(mail.smtpPort),
       MAIL_CATCHER_URL: mail.httpUrl,
+      STRIPE_API_PORT: String(payments.port),
       LOG_LEVEL: "warn",
       AUTH_RATE_LIMIT: "1000",
     };
@@ -98,19 +102,22 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
     const api = spawnApp("src/server.ts");
     spawnApp("src/worker.ts");
     await waitForHealth(baseUrl, api, () => output);
-    const started = { pg, mail };
+    const started = { pg, mail, payments };
     return {
       baseUrl,
       mailUrl: mail.httpUrl,
+      paymentsUrl: payments.url,
       stop: async () => {
         await Promise.all(children.map(stopChild));
         await started.mail.stop();
+        await started.payments.stop();
         started.pg.stop();
       },
     };
   } catch (err) {
     await Promise.all(children.map(stopChild));
     await mail?.stop();
+    await payments?.stop();
     pg?.stop();
     throw err;
   }

@@ -54,7 +54,7 @@ const orgRoutes: RouteObject[] = [
   { path: "corpora/:corpusId/batches/:batchId", lazy: screen(() => import("./routes/batch-detail"), "BatchDetailRoute") },
   { path: "corpora/:corpusId/batches/:batchId/review/:documentId", lazy: screen(() => import("./routes/review-document"), "ReviewDocumentRoute") },
   { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },
-  { path: "billing", element: <AreaPlaceholder title="Billing" what="Seats and billing arrive with the billing work." /> },
+  { path: "billing", lazy: screen(() => import("./routes/billing"), "BillingRoute") },
 ];
 
 export const routes: RouteObject[] = [

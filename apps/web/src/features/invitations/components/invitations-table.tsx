@@ -6,6 +6,7 @@ import { Notice } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/data-table";
 import { useToast } from "@/components/ui/toaster";
 import { cn } from "@/lib/cn";
+import { SeatLimitNotice, isSeatLimitError } from "./seat-limit-notice";
 import { useResendInvitation, useRevokeInvitation } from "../api/invitations";
 
 const col = createColumnHelper<Invitation>();
@@ -16,6 +17,7 @@ export function InvitationsTable({ orgId, invitations }: { orgId: string; invita
   const revoke = useRevokeInvitation(orgId);
   const toast = useToast();
   const [error, setError] = useState<string | null>(null);
+  const [seatError, setSeatError] = useState<string | null>(null);
   const columns = useMemo(
     () => [
       col.accessor("email", { header: "E-mail" }),
@@ -53,7 +55,12 @@ export function InvitationsTable({ orgId, invitations }: { orgId: string; invita
                 variant="ghost"
                 onClick={() => {
                   setError(null);
-                  resend.mutate(inv.id, { onSuccess: () => toast.show(`Sent again to ${inv.email}.`, "success"), onError: (e) => setError(e.message) });
+                  setSeatError(null);
+                  resend.mutate(inv.id, {
+                    onSuccess: () => toast.show(`Sent again to ${inv.email}.`, "success"),
+                    // Sending an expired invitation again takes a seat, which may not be there.
+                    onError: (e) => (isSeatLimitError(e) ? setSeatError(e.message) : setError(e.message)),
+                  });
                 }}
               >
                 Send again
@@ -74,6 +81,7 @@ export function InvitationsTable({ orgId, invitations }: { orgId: string; invita
   return (
     <div className="space-y-3">
       {error ? <Notice tone="error">{error}</Notice> : null}
+      {seatError ? <SeatLimitNotice orgId={orgId} message={seatError} /> : null}
       <DataTable table={table} flexRender={flexRender} caption="Invitations" />
     </div>
   );

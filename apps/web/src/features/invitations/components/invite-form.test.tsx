@@ -42,4 +42,26 @@ describe("InviteForm", () => {
     expect(body).toEqual({ email: "juno@example.test", role: "data_lead" });
     expect(screen.getByLabelText("E-mail address")).toHaveValue("");
   });
+
+  it("shows the seat refusal (402) with a link to add seats", async () => {
+    server.use(
+      http.post(`/api/orgs/${ORG}/invitations`, () =>
+        HttpResponse.json(
+          {
+            error: {
+              code: "seat_limit_reached",
+              message: "All 5 seats are in use (4 members and 1 pending invitation). An admin can add seats on the Billing page.",
+              details: { seatsUsed: 5, seatLimit: 5, plan: "free" },
+            },
+          },
+          { status: 402 },
+        ),
+      ),
+    );
+    renderWithProviders(<InviteForm orgId={ORG} />);
+    await userEvent.type(screen.getByLabelText("E-mail address"), "juno@example.test");
+    await userEvent.click(screen.getByRole("button", { name: "Send invitation" }));
+    expect(await screen.findByText(/All 5 seats are in use/)).toBeInTheDocument();
+    expect(screen.getByRole("link", { name: "Add seats on the Billing page" })).toHaveAttribute("href", `/o/${ORG}/billing`);
+  });
 });

@@ -1,0 +1,13 @@
+import type { BillingState } from "@tagloom/contracts";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import { billingQueryKey } from "./get-billing";
+
+export function useCancelSubscription(orgId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post<BillingState>(`/orgs/${orgId}/billing/cancel`),
+    onSuccess: (state) => qc.setQueryData(billingQueryKey(orgId), state),
+    onSettled: () => qc.invalidateQueries({ queryKey: billingQueryKey(orgId) }),
+  });
+}
