@@ -397,7 +397,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   lattice.length = T;
   lattice.end = cache.end;
-  const { symbols, logEmissions, emissions, logSteps, steps, logStart, start } = lattice;
+  const { symbols, logEmissions, emissions, logStart, start } = lattice;
   for (let t = 0; t < T; t++) {
     const entry = wordEntry(model, cache, words[t], t === 0);
     symbols[t] = cache.wordSymbol[entry];
