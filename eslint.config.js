@@ -27,7 +27,7 @@ export default tseslint.config(
       "no-restricted-globals": ["error", { name: "fetch", message: "No I/O in the model package." }, { name: "process", message: "Take options as arguments." }],
       "no-restricted-properties": [
         "error",
-        { object: "Math", property: "random", message: "Pass a seeded Rng (src/random.ts)." },
+        { object: "Math", property: "random", message: "Pass a seeded Rng (src/util/random.ts)." },
         { object: "Date", property: "now", message: "Take a now() function from the caller." },
         { object: "console", message: "No logging in the model package." },
       ],

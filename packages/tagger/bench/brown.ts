@@ -6,10 +6,10 @@
  */
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
-import { crossValidate } from "../src/cross-validation";
-import { evaluateModel } from "../src/evaluation";
-import { tagDocument, trainTagger } from "../src/tagger";
-import type { TrainingConfig } from "../src/training-config";
+import { crossValidate } from "../src/evaluation/cross-validation";
+import { evaluateModel } from "../src/evaluation/evaluation";
+import { tagDocument, trainTagger } from "../src/model/tagger";
+import type { TrainingConfig } from "../src/estimation/training-config";
 import { brownDirectory, brownNewsSplit } from "../test/brown-corpus";
 
 export const BROWN_CONFIGURATIONS: Array<{ name: string; config: Partial<TrainingConfig> }> = [

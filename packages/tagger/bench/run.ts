@@ -6,6 +6,7 @@
  *  3. Peak RSS of training on 1,000,000 tokens (separate process).
  *  4. wikigold cross-validated and test F1 per configuration (bench/wikigold.ts).
  *  5. Brown news accuracy and NLTK agreement (bench/brown.ts).
+ *  6. End-to-end tagging throughput and span-confidence calibration (bench/calibration.ts).
  * Pass section numbers to run only some of them: `tsx bench/run.ts 1 3`.
  */
 import { execFileSync, spawnSync } from "node:child_process";
@@ -13,8 +14,9 @@ import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { benchTraining, benchViterbi } from "../src/cli/bench";
-import { isWasmSimdAvailable } from "../src/viterbi-wasm";
+import { benchTagging, benchTraining, benchViterbi } from "../src/cli/bench";
+import { calibrationReport } from "./calibration";
+import { isWasmSimdAvailable } from "../src/kernels/viterbi-wasm";
 import { brownReport, nltkAgreement } from "./brown";
 import { WIKIGOLD_CONFIGURATIONS, wikigoldReport } from "./wikigold";
 
@@ -67,6 +69,14 @@ function wikigold(): void {
   }
 }
 
+function tagging(): void {
+  const { tokensPerSecond, spans } = benchTagging(200_000, 500_000);
+  print("6. Tagging, default configuration end to end (words → tags and calibrated span confidences), 500,000 held-out synthetic tokens");
+  print(`   ${Math.round(tokensPerSecond).toLocaleString("en")} tokens/s (${spans.toLocaleString("en")} spans; target ≥ 1,000,000)`);
+  const row = calibrationReport(join(shared, "data", "wikigold"));
+  print(`   span-confidence ECE (10 equal-width bins): wikigold test ${row.test.toFixed(4)} (${row.testSpans} spans), 5-fold CV ${row.cv.toFixed(4)} (${row.cvSpans} spans); target ≤ 0.05`);
+}
+
 function brown(): void {
   print("5. Brown news split, token accuracy: 5-fold CV over the training files and test");
   for (const row of brownReport()) print(`   CV ${row.cv.toFixed(4)} ± ${row.cvStd.toFixed(4)}   test ${row.test.toFixed(4)}   ${row.name}`);
@@ -78,3 +88,4 @@ if (want(2)) training();
 if (want(3)) memory();
 if (want(4)) wikigold();
 if (want(5)) brown();
+if (want(6)) tagging();

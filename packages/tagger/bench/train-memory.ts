@@ -2,8 +2,8 @@
  * Peak memory of training on 1,000,000 labelled tokens with the default configuration, measured
  * in a process of its own so nothing else counts toward the peak. Prints one JSON line.
  */
-import { createSyntheticDocuments } from "../src/synthetic";
-import { trainTagger } from "../src/tagger";
+import { createSyntheticDocuments } from "../src/kernels/synthetic";
+import { trainTagger } from "../src/model/tagger";
 
 const tokens = Number(process.argv[2] ?? "1000000");
 const documents = createSyntheticDocuments(tokens);

@@ -15,12 +15,12 @@
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { toIob2 } from "../src/bio";
-import { parseColumnText, type ColumnDocument } from "../src/conll";
-import { planFolds } from "../src/cross-validation";
-import { evaluateModel } from "../src/evaluation";
-import { trainTagger } from "../src/tagger";
-import type { TrainingConfig } from "../src/training-config";
+import { toIob2 } from "../src/text/bio";
+import { parseColumnText, type ColumnDocument } from "../src/text/conll";
+import { planFolds } from "../src/evaluation/cross-validation";
+import { evaluateModel } from "../src/evaluation/evaluation";
+import { trainTagger } from "../src/model/tagger";
+import type { TrainingConfig } from "../src/estimation/training-config";
 
 export type WikigoldRow = { name: string; config: Partial<TrainingConfig>; cvMean: number; cvStd: number; testF1: number; seconds: number };
 

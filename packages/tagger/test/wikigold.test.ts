@@ -8,10 +8,10 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { parseColumnText } from "../src/conll";
-import { loadModel, serializeModel } from "../src/serialize";
-import { tagDocument, tagSentence, trainTagger } from "../src/tagger";
-import { documentUncertainty } from "../src/uncertainty";
+import { parseColumnText } from "../src/text/conll";
+import { loadModel, serializeModel } from "../src/model/serialize";
+import { tagDocument, tagSentence, trainTagger } from "../src/model/tagger";
+import { documentUncertainty } from "../src/model/uncertainty";
 
 const data = fileURLToPath(new URL("../../../../shared/data/wikigold/", import.meta.url));
 const read = (file: string) => parseColumnText(readFileSync(data + file, "utf8"), { file }).documents;

@@ -2,10 +2,12 @@
  * Timing helpers shared by `tagger bench` and bench/run.ts (timing is I/O: it lives with the CLI,
  * never in the model package).
  */
-import { createSyntheticCorpus, createViterbiWorkload } from "../synthetic";
-import { segmentStartTable } from "../context-emissions";
-import { countSupervised } from "../train";
-import { createViterbiWorkspace, decodeViterbi } from "../viterbi";
+import { createSyntheticCorpus, createViterbiWorkload } from "../kernels/synthetic";
+import { segmentStartTable } from "../estimation/context-emissions";
+import { countSupervised } from "../estimation/train";
+import { createViterbiWorkspace, decodeViterbi } from "../kernels/viterbi";
+import { createSyntheticDocuments } from "../kernels/synthetic";
+import { tagSentence, trainTagger } from "../model/tagger";
 
 const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
 
@@ -52,4 +54,22 @@ export function benchTraining(tokens: number, repeats: number, tables = true): n
     best = Math.min(best, seconds(started));
   }
   return tokens / best;
+}
+
+/**
+ * End-to-end tagging throughput of the default configuration (calibrated span confidences
+ * included): tagSentence from word strings to tags and span confidences, on `tokens` held-out
+ * synthetic tokens (a different seed from the training documents, so many unknown words), after
+ * a warm-up pass over other held-out text. One timed pass: the per-word-type caches start from
+ * what the warm-up text filled, as a server's would.
+ */
+export function benchTagging(trainTokens: number, tokens: number): { tokensPerSecond: number; spans: number } {
+  const { model } = trainTagger(createSyntheticDocuments(trainTokens, 50000, 13));
+  const sentences = (seed: number, n: number) => createSyntheticDocuments(n, 50000, seed).flatMap((d) => d.sentences.map((x) => x.words));
+  for (const words of sentences(15, Math.min(tokens, 50_000))) tagSentence(model, words);
+  const test = sentences(14, tokens);
+  let spans = 0;
+  const started = process.hrtime.bigint();
+  for (const words of test) spans += tagSentence(model, words).chunks.length;
+  return { tokensPerSecond: tokens / seconds(started), spans };
 }

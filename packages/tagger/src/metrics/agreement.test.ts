@@ -1,7 +1,7 @@
 import { spawnSync } from "node:child_process";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { createRng } from "../random";
+import { createRng } from "../util/random";
 import { cohensKappa, entityAgreement } from "./agreement";
 
 // NLTK from Debian's python3-nltk as a live reference (REFERENCES.md: run with /usr/bin/python3).

@@ -1,4 +1,4 @@
-import type { CharSpan } from "../bio";
+import type { CharSpan } from "../text/bio";
 
 /** Cohen's kappa of two annotators' per-token labels, with its parts (fractions) and n tokens. */
 export type KappaResult = { kappa: number; observed: number; expected: number; n: number };

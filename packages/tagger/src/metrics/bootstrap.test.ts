@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { createRng, type Rng } from "../random";
+import { createRng, type Rng } from "../util/random";
 import { pairedBootstrap } from "./bootstrap";
 
 // Tags for one sentence of n tokens with one single-token PER entity per listed position.

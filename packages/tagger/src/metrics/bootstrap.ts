@@ -1,4 +1,4 @@
-import type { Rng } from "../random";
+import type { Rng } from "../util/random";
 import { checkSameShape } from "./check-shapes";
 import { computeF1, scoreEntities } from "./entity-scores";
 

@@ -1,4 +1,4 @@
-import { isIobTag } from "../bio";
+import { isIobTag } from "../text/bio";
 
 const OUTSIDE = -1;
 

@@ -1,6 +1,6 @@
 import { spawnSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
-import { createRng } from "../random";
+import { createRng } from "../util/random";
 import { computeConfusionMatrix } from "./confusion";
 
 // NLTK from Debian's python3-nltk as a live reference (REFERENCES.md: run with /usr/bin/python3).

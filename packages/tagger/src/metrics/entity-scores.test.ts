@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { tagsToChunks, toIob2 } from "../bio";
+import { tagsToChunks, toIob2 } from "../text/bio";
 import { computePrf, scoreEntities, tokenAccuracy } from "./entity-scores";
 
 describe("scoreEntities", () => {

@@ -3,3 +3,4 @@ export { pairedBootstrap, type PairedBootstrapResult } from "./bootstrap";
 export { computeConfusionMatrix, type ConfusionMatrix } from "./confusion";
 export { computePrf, scoreEntities, tokenAccuracy, type EntityScores, type Prf } from "./entity-scores";
 export { learningCurvePlan, type LearningCurveStep } from "./learning-curve";
+export { expectedCalibrationError, type CalibrationBin, type CalibrationReport } from "./calibration";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { createRng } from "../random";
+import { createRng } from "../util/random";
 import { learningCurvePlan } from "./learning-curve";
 
 describe("learningCurvePlan", () => {

@@ -1,4 +1,4 @@
-import type { Rng } from "../random";
+import type { Rng } from "../util/random";
 
 /** One point of a learning curve: train on these documents (ascending indices). */
 export type LearningCurveStep = { fraction: number; documentIndices: number[] };

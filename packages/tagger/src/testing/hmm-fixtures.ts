@@ -2,8 +2,8 @@
  * Worked-example HMMs from published sources and a brute-force enumerator, used only by tests.
  * Each fixture names its source; the expected numbers live in the tests beside the kernels.
  */
-import { createHmmFromProbabilities, type EmissionInput, type HmmParams } from "../hmm-params";
-import type { Rng } from "../random";
+import { createHmmFromProbabilities, type EmissionInput, type HmmParams } from "../kernels/hmm-params";
+import type { Rng } from "../util/random";
 
 /**
  * Jurafsky & Martin, Speech and Language Processing, 3rd ed. draft, Appendix A "Hidden Markov

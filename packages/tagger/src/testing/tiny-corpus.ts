@@ -1,5 +1,5 @@
 /** A small hand-written labelled corpus for unit tests of the high-level tagger (used only by tests). Every name in it is invented. */
-import type { ColumnDocument } from "../conll";
+import type { ColumnDocument } from "../text/conll";
 
 const raw = [
   [

@@ -1,0 +1,501 @@
+import { contextEmissionLogRatio } from "../estimation/context-emissions";
+import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
+import { prevWordRow } from "../estimation/estimate";
+import { interpolateWittenBell } from "../estimation/smoothing";
+import { suffixLogRatio } from "../estimation/suffix-model";
+import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
+import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
+import type { TaggerModel } from "./tagger-model";
+
+/**
+ * The tagging path's first-order lattice of one sentence, built from per-model caches instead of
+ * hashing and interpolating at every token. It holds the same log scores as
+ * buildFirstOrderProblem (decode-input.ts), each computed by the same arithmetic from the same
+ * counts, plus their probabilities for the scaled forward-backward:
+ *
+ * - per word type (and sentence-initial or not): its symbol and its emission row (table row, plus
+ *   the suffix log-ratio for unknown words), log and exp;
+ * - per previous symbol: the K×K transition rows (Witten–Bell over the previous-word counts, IOB2
+ *   constraints) with the context-emission ratio of the symbol-free case folded in: a context
+ *   whose count for the current word is 0 gives log(u/(n + u)) whatever the word;
+ * - per current symbol: the few (context, state) cells where that word was seen in a state
+ *   context (a segment start) or at the sentence start, which replace the folded-in value.
+ *
+ * Only first-order models without position buckets and without the NLTK tables take this path
+ * ({@link fastLatticeApplies}); the others keep the general builder.
+ */
+
+/** Most cached word types and previous-symbol matrices before a cache starts afresh (bounds memory). */
+const MAX_WORD_ENTRIES = 1 << 17;
+const MAX_PREVIOUS_ENTRIES = 1 << 13;
+
+/** The lattice of the last sentence built (buffers reused from sentence to sentence). */
+export type SentenceLattice = {
+  length: number;
+  symbols: Int32Array;
+  /** K log / probability start scores (start distribution plus the sentence-start context ratio). */
+  logStart: Float64Array;
+  start: Float64Array;
+  /**
+   * Per-step transition scores: step t (t ≥ 1) reads the K×K matrix number stepIndex[t] of
+   * logSteps (log) and steps (probabilities). These arrays are the model cache's own (matrices
+   * per previous symbol, after a patch area where steps with word-specific cells are written), so
+   * a step costs no copy unless its word overrides cells.
+   */
+  logSteps: Float64Array;
+  steps: Float64Array;
+  /** T×K emission scores, log and probability. */
+  logEmissions: Float64Array;
+  emissions: Float64Array;
+  /** K end probabilities, or null. */
+  end: Float64Array | null;
+  /** Matrix number of each step (entry 0 unused). */
+  stepIndex: Int32Array;
+  /** Buffers of the scaled forward-backward over this lattice. */
+  scaled: ScaledWorkspace;
+};
+
+type Cache = {
+  K: number;
+  words: Map<string, number>;
+  firstWords: Map<string, number>;
+  wordSymbol: Int32Array;
+  wordLog: Float64Array;
+  wordExp: Float64Array;
+  wordCount: number;
+  previousSlot: Int32Array;
+  /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
+  previousBase: Float64Array;
+  /**
+   * The same with the context-free context-emission ratio added, and its exp: matrices
+   * 0..patches−1 are the per-sentence patch area (step t patched into matrix t), slot s is
+   * matrix patches + s.
+   */
+  previousLog: Float64Array;
+  previousExp: Float64Array;
+  patches: number;
+  /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
+  previousHasRow: Uint8Array;
+  /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
+  previousAnyRow: Uint8Array;
+  previousCount: number;
+  /**
+   * Per symbol, CSR of the segment-start cells (i·K + j, context i) and start states (K·K + j,
+   * context K) where that symbol has a count, with the exact log context-emission ratio there.
+   */
+  exceptionOffsets: Int32Array | null;
+  exceptionCells: Int32Array | null;
+  exceptionRatios: Float64Array | null;
+  /**
+   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous·S + symbol) →
+   * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
+   */
+  pairIndex: CountTable | null;
+  pairStarts: Int32Array | null;
+  pairStates: Int32Array | null;
+  pairRatios: Float64Array | null;
+  /** Context-free parts: segment-start cells' log(u/(n+u)) (0 without a row), and the start's. */
+  segmentZero: Float64Array;
+  startZero: Float64Array;
+  /** K end probabilities, or null. */
+  end: Float64Array | null;
+  keep: Float64Array;
+  lattice: SentenceLattice;
+  ratio: Float64Array;
+  scratch: Float64Array;
+  conditional: Float64Array;
+};
+
+const caches = new WeakMap<TaggerModel, Cache>();
+
+/** Whether {@link buildSentenceLattice} handles this model. */
+export function fastLatticeApplies(model: TaggerModel): boolean {
+  const { config } = model;
+  return model.nltk === null && config.order === 1 && model.statistics.buckets === 1 && config.positionBuckets.sentence.length === 0;
+}
+
+function createLattice(K: number, capacity: number): SentenceLattice {
+  return {
+    length: 0,
+    symbols: new Int32Array(capacity),
+    logStart: new Float64Array(K),
+    start: new Float64Array(K),
+    logSteps: new Float64Array(0),
+    steps: new Float64Array(0),
+    logEmissions: new Float64Array(capacity * K),
+    emissions: new Float64Array(capacity * K),
+    end: null,
+    stepIndex: new Int32Array(capacity),
+    scaled: createScaledWorkspace(K, capacity),
+  };
+}
+
+function createCache(model: TaggerModel): Cache {
+  const K = model.tags.length;
+  const KK = K * K;
+  const S = model.statistics.symbols;
+  const { parameters } = model;
+  const end = parameters.end === null ? null : Float64Array.from(parameters.end, Math.exp);
+  const keep = new Float64Array(K);
+  if (parameters.end !== null) for (let i = 0; i < K; i++) keep[i] = Math.log1p(-Math.exp(parameters.end[i]));
+  const segmentZero = new Float64Array(KK);
+  const startZero = new Float64Array(K);
+  let exceptionOffsets: Int32Array | null = null;
+  let exceptionCells: Int32Array | null = null;
+  let exceptionRatios: Float64Array | null = null;
+  let pairIndex: CountTable | null = null;
+  let pairStartsOut: Int32Array | null = null;
+  let pairStates: Int32Array | null = null;
+  let pairRatios: Float64Array | null = null;
+  const table = parameters.contextEmission;
+  if (table !== null && model.segmentStarts !== null) {
+    // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
+    const zero = (context: number, j: number): number => {
+      const entry = findEntry(table.totals, context * K + j);
+      if (entry < 0) return 0;
+      const n = table.totals.values[entry];
+      const u = table.distinct.values[entry];
+      return Math.log((0 + u) / (n + u));
+    };
+    for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) segmentZero[i * K + j] = model.segmentStarts[i * K + j] === 1 ? zero(i, j) : 0;
+    for (let j = 0; j < K; j++) startZero[j] = zero(K, j);
+    // Cells (context ≤ K, state) by symbol, for the words that have a count there; only cells
+    // where that context applies (segment starts, and the sentence start).
+    const { counts } = table;
+    const applies = (key: number): boolean => {
+      const row = Math.floor(key / S);
+      const context = Math.floor(row / K);
+      if (context > K) return false;
+      return context === K || model.segmentStarts![context * K + (row % K)] === 1;
+    };
+    const sizes = new Int32Array(S + 1);
+    for (let e = 0; e < counts.size; e++) if (applies(counts.keys[e])) sizes[(counts.keys[e] % S) + 1]++;
+    exceptionOffsets = new Int32Array(S + 1);
+    for (let s = 0; s < S; s++) exceptionOffsets[s + 1] = exceptionOffsets[s] + sizes[s + 1];
+    exceptionCells = new Int32Array(exceptionOffsets[S]);
+    exceptionRatios = new Float64Array(exceptionOffsets[S]);
+    const fill = exceptionOffsets.slice(0, S);
+    // Inside-segment contexts: group the entries by (previous symbol, symbol).
+    pairIndex = createCountTable();
+    const pairSizes: number[] = [];
+    // Segment cells first, then the start cells (context K), within each symbol's list.
+    for (const startCells of [false, true]) {
+      for (let e = 0; e < counts.size; e++) {
+        const key = counts.keys[e];
+        if (!applies(key)) continue;
+        const symbol = key % S;
+        const row = (key - symbol) / S;
+        const context = Math.floor(row / K);
+        if ((context === K) !== startCells) continue;
+        const j = row % K;
+        const x = fill[symbol]++;
+        exceptionCells[x] = context === K ? KK + j : context * K + j;
+        exceptionRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
+      }
+    }
+    for (let e = 0; e < counts.size; e++) {
+      const key = counts.keys[e];
+      const symbol = key % S;
+      const row = (key - symbol) / S;
+      const context = Math.floor(row / K);
+      if (context > K) {
+        const pair = (context - K - 1) * S + symbol;
+        const found = findEntry(pairIndex, pair);
+        if (found < 0) {
+          addCount(pairIndex, pair, pairSizes.length);
+          pairSizes.push(1);
+        } else pairSizes[pairIndex.values[found]]++;
+      }
+    }
+    const pairStarts = new Int32Array(pairSizes.length + 1);
+    for (let q = 0; q < pairSizes.length; q++) pairStarts[q + 1] = pairStarts[q] + pairSizes[q];
+    pairStates = new Int32Array(pairStarts[pairSizes.length]);
+    pairRatios = new Float64Array(pairStarts[pairSizes.length]);
+    const pairFill = pairStarts.slice(0, pairSizes.length);
+    for (let e = 0; e < counts.size; e++) {
+      const key = counts.keys[e];
+      const symbol = key % S;
+      const row = (key - symbol) / S;
+      const context = Math.floor(row / K);
+      if (context <= K) continue;
+      const j = row % K;
+      const q = getCount(pairIndex, (context - K - 1) * S + symbol);
+      const x = pairFill[q]++;
+      pairStates[x] = j;
+      pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
+    }
+    pairStartsOut = pairStarts;
+  }
+  return {
+    K,
+    words: new Map(),
+    firstWords: new Map(),
+    wordSymbol: new Int32Array(1024),
+    wordLog: new Float64Array(1024 * K),
+    wordExp: new Float64Array(1024 * K),
+    wordCount: 0,
+    previousSlot: new Int32Array(S).fill(-1),
+    previousBase: new Float64Array(64 * KK),
+    previousLog: new Float64Array(128 * KK),
+    previousExp: new Float64Array(128 * KK),
+    patches: 64,
+    previousHasRow: new Uint8Array(64 * K),
+    previousAnyRow: new Uint8Array(64),
+    previousCount: 0,
+    exceptionOffsets,
+    exceptionCells,
+    exceptionRatios,
+    pairIndex,
+    pairStarts: pairStartsOut,
+    pairStates,
+    pairRatios,
+    segmentZero,
+    startZero,
+    end,
+    keep,
+    lattice: createLattice(K, 64),
+    ratio: new Float64Array(K),
+    scratch: new Float64Array(2 * K),
+    conditional: new Float64Array(K),
+  };
+}
+
+function cacheOf(model: TaggerModel): Cache {
+  let cache = caches.get(model);
+  if (cache === undefined) {
+    cache = createCache(model);
+    caches.set(model, cache);
+  }
+  return cache;
+}
+
+function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: number): T {
+  if (array.length >= size) return array;
+  const next = new (array.constructor as new (n: number) => T)(Math.max(size, array.length * 2));
+  next.set(array);
+  return next;
+}
+
+/** Entry number of a word type at a sentence position, filling it on first sight. */
+function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
+  const map = first ? cache.firstWords : cache.words;
+  const found = map.get(word);
+  if (found !== undefined) return found;
+  if (cache.wordCount >= MAX_WORD_ENTRIES) {
+    cache.words.clear();
+    cache.firstWords.clear();
+    cache.wordCount = 0;
+  }
+  const K = cache.K;
+  const entry = cache.wordCount++;
+  cache.wordSymbol = grow(cache.wordSymbol, entry + 1);
+  cache.wordLog = grow(cache.wordLog, (entry + 1) * K);
+  cache.wordExp = grow(cache.wordExp, (entry + 1) * K);
+  const symbol = symbolOf(model.vocabulary, word, first);
+  cache.wordSymbol[entry] = symbol;
+  const { emissions } = model.parameters;
+  const out = entry * K;
+  for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
+  if (symbol >= model.vocabulary.words.length && model.suffix !== null) {
+    suffixLogRatio(model.suffix, word, suffixGroupOf(model.vocabulary, word, first), cache.ratio, cache.scratch);
+    for (let k = 0; k < K; k++) cache.wordLog[out + k] += cache.ratio[k];
+  }
+  for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
+  map.set(word, entry);
+  return entry;
+}
+
+/** Slot of the K×K step matrix after previous symbol `previous` (context-free parts folded in). */
+function previousEntry(model: TaggerModel, cache: Cache, previous: number): number {
+  const slot = cache.previousSlot[previous];
+  if (slot >= 0) return slot;
+  const K = cache.K;
+  const KK = K * K;
+  const entry = cache.previousCount++;
+  cache.previousBase = grow(cache.previousBase, (entry + 1) * KK);
+  cache.previousLog = grow(cache.previousLog, (cache.patches + entry + 1) * KK);
+  cache.previousExp = grow(cache.previousExp, (cache.patches + entry + 1) * KK);
+  cache.previousHasRow = grow(cache.previousHasRow, (entry + 1) * K);
+  cache.previousAnyRow = grow(cache.previousAnyRow, entry + 1);
+  cache.previousAnyRow[entry] = 0;
+  const { parameters } = model;
+  const base = parameters.transitions;
+  const table = parameters.prevWord;
+  const contextTable = parameters.contextEmission;
+  const segmentStarts = model.segmentStarts;
+  const allowed = model.constraints?.allowed ?? null;
+  const logs = cache.previousBase;
+  const conditional = cache.conditional;
+  const keep = cache.keep;
+  const out0 = entry * KK;
+  // The same arithmetic, in the same order, as buildFirstOrderProblem (decode-input.ts).
+  for (let i = 0; i < K; i++) {
+    const out = out0 + i * K;
+    const row = table === null ? -1 : prevWordRow(table, previous * K + i);
+    if (table === null || row < 0) {
+      for (let j = 0; j < K; j++) logs[out + j] = base[i * K + j];
+    } else {
+      for (let j = 0; j < K; j++) conditional[j] = base[i * K + j] - keep[i];
+      interpolateWittenBell(table.entries, table.values, table.offsets[row], table.offsets[row + 1], conditional, 0, K, logs, out);
+      for (let j = 0; j < K; j++) logs[out + j] += keep[i];
+      if (allowed !== null) for (let j = 0; j < K; j++) if (allowed[i * K + j] === 0) logs[out + j] = -Infinity;
+    }
+  }
+  const folded = cache.previousLog;
+  const at = (cache.patches + entry) * KK;
+  for (let x = 0; x < KK; x++) folded[at + x] = logs[out0 + x];
+  const hasRow = cache.previousHasRow;
+  hasRow.fill(0, entry * K, entry * K + K);
+  if (contextTable !== null && segmentStarts !== null) {
+    const contextRow = (K + 1 + previous) * K;
+    for (let j = 0; j < K; j++) {
+      const found = findEntry(contextTable.totals, contextRow + j);
+      let wordZero = 0;
+      if (found >= 0) {
+        hasRow[entry * K + j] = 1;
+        cache.previousAnyRow[entry] = 1;
+        const n = contextTable.totals.values[found];
+        const u = contextTable.distinct.values[found];
+        wordZero = Math.log((0 + u) / (n + u));
+      }
+      for (let i = 0; i < K; i++) folded[at + i * K + j] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
+    }
+  }
+  for (let x = 0; x < KK; x++) cache.previousExp[at + x] = Math.exp(folded[at + x]);
+  cache.previousSlot[previous] = entry;
+  return entry;
+}
+
+/** Makes the patch area hold `length` matrices, moving the slots behind it. */
+function reservePatches(cache: Cache, length: number): void {
+  if (cache.patches >= length) return;
+  const KK = cache.K * cache.K;
+  const patches = Math.max(length, 2 * cache.patches);
+  const size = (patches + Math.max(cache.previousCount, 64)) * KK;
+  const log = new Float64Array(size);
+  const exp = new Float64Array(size);
+  log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
+  exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
+  cache.previousLog = log;
+  cache.previousExp = exp;
+  cache.patches = patches;
+}
+
+/**
+ * Builds the lattice of one sentence into the model's reused buffers (valid until the next call
+ * for the same model). Expects {@link fastLatticeApplies}(model) and a non-empty sentence.
+ */
+export function buildSentenceLattice(model: TaggerModel, words: readonly string[]): SentenceLattice {
+  const cache = cacheOf(model);
+  const K = cache.K;
+  const KK = K * K;
+  const T = words.length;
+  let lattice = cache.lattice;
+  if (lattice.symbols.length < T) {
+    lattice = createLattice(K, Math.max(T, 2 * lattice.symbols.length));
+    cache.lattice = lattice;
+  }
+  lattice.length = T;
+  lattice.end = cache.end;
+  const { symbols, logEmissions, emissions, logStart, start } = lattice;
+  for (let t = 0; t < T; t++) {
+    const entry = wordEntry(model, cache, words[t], t === 0);
+    symbols[t] = cache.wordSymbol[entry];
+    const wordLog = cache.wordLog;
+    const wordExp = cache.wordExp;
+    for (let k = 0, from = entry * K, to = t * K; k < K; k++) {
+      logEmissions[to + k] = wordLog[from + k];
+      emissions[to + k] = wordExp[from + k];
+    }
+  }
+  const { parameters } = model;
+  const contextTable = parameters.contextEmission;
+  const segmentStarts = model.segmentStarts;
+  const S = model.statistics.symbols;
+  const withContext = contextTable !== null && segmentStarts !== null;
+  const offsets = cache.exceptionOffsets!;
+  const cells = cache.exceptionCells!;
+  const ratios = cache.exceptionRatios!;
+  // Sentence start: the start distribution plus the context ratio for context K (sentence start).
+  const s0 = symbols[0];
+  for (let j = 0; j < K; j++) logStart[j] = parameters.start[j];
+  if (withContext) {
+    for (let j = 0; j < K; j++) logStart[j] += cache.startZero[j];
+    for (let x = offsets[s0]; x < offsets[s0 + 1]; x++) {
+      const cell = cells[x];
+      if (cell >= KK) logStart[cell - KK] = parameters.start[cell - KK] + ratios[x];
+    }
+  }
+  for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
+  if (T < 2) return lattice;
+  reservePatches(cache, T);
+  // Start afresh between sentences only: the steps of this one point into the slots.
+  if (cache.previousCount + T > MAX_PREVIOUS_ENTRIES) {
+    cache.previousSlot.fill(-1);
+    cache.previousCount = 0;
+  }
+  const stepIndex = lattice.stepIndex;
+  if (parameters.prevWord === null && !withContext) {
+    // One matrix for every step: the base transitions, in patch matrix 0.
+    for (let x = 0; x < KK; x++) {
+      cache.previousLog[x] = parameters.transitions[x];
+      cache.previousExp[x] = Math.exp(parameters.transitions[x]);
+    }
+    lattice.logSteps = cache.previousLog;
+    lattice.steps = cache.previousExp;
+    for (let t = 1; t < T; t++) stepIndex[t] = 0;
+    return lattice;
+  }
+  for (let t = 1; t < T; t++) {
+    const previous = symbols[t - 1];
+    const slot = previousEntry(model, cache, previous);
+    const matrix = cache.patches + slot;
+    stepIndex[t] = matrix;
+    if (!withContext) continue;
+    const symbol = symbols[t];
+    const first = offsets[symbol];
+    const last = offsets[symbol + 1];
+    // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
+    const hasSegmentCells = first < last && cells[first] < KK;
+    const group = cache.previousAnyRow[slot] === 0 ? -1 : findEntry(cache.pairIndex!, previous * S + symbol);
+    if (!hasSegmentCells && group < 0) continue;
+    // This word overrides cells: patch a copy of the slot's matrix into patch matrix t.
+    const logs = cache.previousLog;
+    const exps = cache.previousExp;
+    const out = t * KK;
+    const src = matrix * KK;
+    for (let x = 0; x < KK; x++) {
+      logs[out + x] = logs[src + x];
+      exps[out + x] = exps[src + x];
+    }
+    stepIndex[t] = t;
+    const base = cache.previousBase;
+    const from = slot * KK;
+    // Segment-start cells where this word was seen after state i (exact ratio precomputed).
+    for (let x = first; x < last; x++) {
+      const cell = cells[x];
+      if (cell >= KK) continue;
+      const v = base[from + cell] + ratios[x];
+      logs[out + cell] = v;
+      exps[out + cell] = Math.exp(v);
+    }
+    // Inside-segment cells whose context (the previous word) was seen followed by this word.
+    if (group < 0) continue;
+    const q = cache.pairIndex!.values[group];
+    const pairStates = cache.pairStates!;
+    const pairRatios = cache.pairRatios!;
+    for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
+      const j = pairStates[y];
+      const ratio = pairRatios[y];
+      for (let i = 0; i < K; i++) {
+        if (segmentStarts[i * K + j] === 1) continue;
+        const v = base[from + i * K + j] + ratio;
+        logs[out + i * K + j] = v;
+        exps[out + i * K + j] = Math.exp(v);
+      }
+    }
+  }
+  lattice.logSteps = cache.previousLog;
+  lattice.steps = cache.previousExp;
+  return lattice;
+}

@@ -1,0 +1,95 @@
+import { describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { sentenceLogLikelihood } from "./decode";
+import { loadModel, MODEL_SCHEMA_VERSION, serializeModel } from "./serialize";
+import { tagDocument, tagSentence, trainTagger } from "./tagger";
+import { tinyDocuments, tinyUnlabelled } from "../testing/tiny-corpus";
+
+const probe = [
+  ["Nessa", "Arvell", "works", "for", "Quorvel", "Corp", "in", "Zerith", "."],
+  ["Zorvik", "visited", "Velmora", "in", "1990", "."],
+];
+
+describe("serializeModel / loadModel", () => {
+  it.each([
+    ["default", {}],
+    ["second order", { order: 2 as const }],
+    ["position buckets", { positionBuckets: { token: [1, 2], sentence: [1] } }],
+    ["bikel classes, no suffixes", { wordClasses: "bikel" as const, suffixLength: 0 }],
+    ["NLTK-compatible", { nltkCompatible: true }],
+  ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
+    const { model } = trainTagger(tinyDocuments, config);
+    const text = JSON.stringify(serializeModel(model));
+    const loaded = loadModel(JSON.parse(text));
+    expect(tagDocument(loaded, probe)).toEqual(tagDocument(model, probe));
+    for (const words of probe) {
+      expect(sentenceLogLikelihood(loaded, words)).toBe(sentenceLogLikelihood(model, words));
+      expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+    }
+    expect(loaded.parameters.emissions).toEqual(model.parameters.emissions);
+    expect(loaded.parameters.transitions).toEqual(model.parameters.transitions);
+    expect(JSON.stringify(serializeModel(loaded))).toBe(text);
+  });
+
+  it("round-trips a model refined by EM (fractional counts)", () => {
+    const { model } = trainTagger(tinyDocuments, { semi: "em", iterations: 2 }, { unlabelled: tinyUnlabelled });
+    const loaded = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    expect(loaded.parameters.emissions).toEqual(model.parameters.emissions);
+    expect(tagDocument(loaded, probe)).toEqual(tagDocument(model, probe));
+  });
+
+  it("stores schema version, tag set, vocabulary, parameters, config and data summary", () => {
+    const json = serializeModel(trainTagger(tinyDocuments, { rare: 0 }).model);
+    expect(json.format).toBe("tagloom-hmm");
+    expect(json.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
+    expect(json.tags).toContain("B-PER");
+    expect(json.vocabulary.words).toContain("Velmora");
+    expect(json.parameters.kind).toBe("sufficient-statistics");
+    expect(json.config.order).toBe(1);
+    expect(json.config.rare).toBe(0);
+    expect(json.summary.tokens).toBe(tinyDocuments.flatMap((d) => d.sentences).reduce((n, s) => n + s.words.length, 0));
+  });
+
+  it("refuses unknown versions, other formats and damaged files with clear errors", () => {
+    const json = serializeModel(trainTagger(tinyDocuments).model);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1 and 2/);
+    expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
+    expect(() => loadModel(null)).toThrow(/expected an object/);
+    expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
+    const broken = JSON.parse(JSON.stringify(json));
+    broken.parameters.emissions.indices[0] = 1e9;
+    expect(() => loadModel(broken)).toThrow(/parameters.emissions.indices\[0\]: 1000000000 outside/);
+    const badConfig = JSON.parse(JSON.stringify(json));
+    badConfig.config.rare = -3;
+    expect(() => loadModel(badConfig)).toThrow(/config: rare must be/);
+  });
+});
+
+describe("schema version 1", () => {
+  it("a version-1 file written before calibration existed still loads and tags identically", () => {
+    // model-v1.json: a model serialized by the schema-1 writer with the tags and chunk
+    // confidences it gave then (synthetic words, no real names).
+    const fixture = JSON.parse(readFileSync(fileURLToPath(new URL("../testing/model-v1.json", import.meta.url)), "utf8")) as {
+      model: { schemaVersion: number };
+      sentences: string[][];
+      expected: { tags: string[]; chunks: { type: string; start: number; end: number; confidence: number }[]; logLikelihood: number }[];
+    };
+    expect(fixture.model.schemaVersion).toBe(1);
+    const model = loadModel(fixture.model);
+    expect(model.calibration).toBeNull();
+    expect(model.config.calibration).toBe("none");
+    fixture.sentences.forEach((words, i) => {
+      const result = tagSentence(model, words);
+      const expected = fixture.expected[i];
+      expect(result.tags).toEqual(expected.tags);
+      expect(result.logLikelihood).toBeCloseTo(expected.logLikelihood, 9);
+      expect(result.chunks.map((c) => [c.type, c.start, c.end])).toEqual(expected.chunks.map((c) => [c.type, c.start, c.end]));
+      result.chunks.forEach((c, k) => expect(c.confidence).toBeCloseTo(expected.chunks[k].confidence, 12));
+    });
+    // Written again, it is a version-2 file with no calibration that loads to the same tags.
+    const again = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    expect(serializeModel(again).schemaVersion).toBe(2);
+    expect(tagSentence(again, fixture.sentences[0]).tags).toEqual(fixture.expected[0].tags);
+  });
+});

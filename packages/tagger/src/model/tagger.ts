@@ -1,0 +1,178 @@
+import { tagsToChunks } from "../text/bio";
+import type { ColumnDocument } from "../text/conll";
+import { decodeSentence, sentencePosteriors } from "./decode";
+import { nltkCompatibleConfig } from "../estimation/nltk-compatible";
+import { createRng, type Rng } from "../util/random";
+import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/semi-supervised";
+import { chunkConfidences, chunkConfidencesScaled } from "./span-confidence";
+import { buildSentenceLattice, fastLatticeApplies, type SentenceLattice } from "./sentence-lattice";
+import { computeScaledForwardBackward } from "../kernels/forward-backward-scaled";
+import { decodeViterbiJs } from "../kernels/viterbi";
+import { checkShapes } from "../kernels/hmm-params";
+import { assembleModel, type TaggerModel } from "./tagger-model";
+import { prepareTrainingData } from "../estimation/training-data";
+import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
+import { applyPlatt, fitPlatt, type PlattCalibration } from "../estimation/platt";
+import { planFolds } from "../evaluation/folds";
+
+/** Options of {@link trainTagger} that are not part of the model's configuration. */
+export type TrainOptions = {
+  /** Unlabelled documents → sentences → words, for config.semi = em | sample. */
+  readonly unlabelled?: readonly (readonly (readonly string[])[])[];
+  /** Generator for sampling; default createRng(config.seed). */
+  readonly rng?: Rng;
+  /** Clock in milliseconds for the iteration reports (the package reads no clock itself). */
+  readonly now?: () => number;
+  readonly onIteration?: (report: IterationReport) => void;
+};
+
+/**
+ * Trains a tagger from labelled documents. `config` overrides the defaults (the cross-validated
+ * best settings); with `nltkCompatible: true` every option NLTK's HMM lacks is switched off and
+ * λ (`smoothing.emission`, default 0.1) is NLTK's Lidstone γ. With `semi` set and unlabelled
+ * documents given, the supervised model is refined by EM or sampling, one report per iteration.
+ * Inputs are not modified.
+ */
+export function trainTagger(
+  documents: readonly ColumnDocument[],
+  config: Partial<TrainingConfig> = {},
+  options: TrainOptions = {},
+): { model: TaggerModel; history: IterationReport[] } {
+  const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
+  const data = prepareTrainingData(documents, resolved);
+  const calibration = resolved.calibration === "platt" && data.scheme === "iob" && !resolved.nltkCompatible ? fitCalibration(documents, resolved) : null;
+  const model = assembleModel({
+    calibration,
+    config: resolved,
+    scheme: data.scheme,
+    tags: data.tags,
+    vocabulary: data.vocabulary,
+    statistics: data.statistics,
+    suffix: data.suffix,
+    summary: data.summary,
+  });
+  const unlabelled = options.unlabelled ?? [];
+  if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };
+  return refineWithUnlabelled(model, data.statistics, unlabelled, {
+    method: resolved.semi,
+    iterations: resolved.iterations,
+    weight: resolved.weight,
+    rng: options.rng ?? createRng(resolved.seed),
+    now: options.now,
+    onIteration: options.onIteration,
+  });
+}
+
+/** Folds of the cross-validation that fits the confidence calibration. */
+const CALIBRATION_FOLDS = 5;
+
+/**
+ * Platt scaling fitted on the raw chunk marginals of CALIBRATION_FOLDS-fold cross-validation over
+ * the training documents (each fold's model trained on the other folds, same configuration,
+ * supervised only); null when there are too few sentences for the folds or no predicted span.
+ */
+function fitCalibration(documents: readonly ColumnDocument[], config: TrainingConfig): PlattCalibration | null {
+  if (documents.reduce((n, d) => n + d.sentences.length, 0) < CALIBRATION_FOLDS) return null;
+  const plan = planFolds(documents, CALIBRATION_FOLDS);
+  const inner: TrainingConfig = { ...config, calibration: "none", semi: "none" };
+  const confidences: number[] = [];
+  const correct: boolean[] = [];
+  plan.folds.forEach((heldOut, f) => {
+    const train = plan.folds.filter((_, g) => g !== f).flat();
+    if (train.every((d) => d.sentences.every((s) => s.words.length === 0))) return;
+    const { model } = trainTagger(train, inner);
+    for (const doc of heldOut) {
+      doc.sentences.forEach((sentence, i) => {
+        const gold = new Set(tagsToChunks(sentence.tags).map((c) => `${c.type} ${c.start} ${c.end}`));
+        for (const c of tagSentence(model, sentence.words, { sentenceIndex: i }).chunks) {
+          confidences.push(c.confidence);
+          correct.push(gold.has(`${c.type} ${c.start} ${c.end}`));
+        }
+      });
+    }
+  });
+  return confidences.length === 0 ? null : fitPlatt(confidences, correct);
+}
+
+/** A decoded entity chunk with its marginal probability. */
+export type TaggedChunk = { readonly type: string; readonly start: number; readonly end: number; readonly confidence: number };
+
+/** Output of {@link tagSentence}. */
+export type TaggedSentenceResult = {
+  readonly tags: string[];
+  /** Entity chunks (iob scheme; empty for plain tags), token indices, end exclusive. */
+  readonly chunks: TaggedChunk[];
+  /** log P(words) under the model (natural log; forward algorithm). */
+  readonly logLikelihood: number;
+};
+
+/**
+ * Tags one sentence: Viterbi tags, the entity chunks they form with their confidence (marginal
+ * probability of the chunk, see span-confidence.ts), and the sentence log-likelihood.
+ * `sentenceIndex` is the sentence's index in its document (position-aware models use it).
+ */
+export function tagSentence(model: TaggerModel, words: readonly string[], options: { sentenceIndex?: number } = {}): TaggedSentenceResult {
+  if (words.length === 0) return { tags: [], chunks: [], logLikelihood: 0 };
+  const s = options.sentenceIndex ?? 0;
+  if (fastLatticeApplies(model)) {
+    const fast = tagSentenceFast(model, words);
+    if (fast !== null) return fast;
+  }
+  const { path } = decodeSentence(model, words, s);
+  const tags = Array.from(path, (k) => model.tags[k]);
+  const { logLikelihood } = sentencePosteriors(model, words, s);
+  if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
+  const chunks = tagsToChunks(tags);
+  const confidences = calibrated(model, chunkConfidences(model, words, s, chunks, logLikelihood));
+  return { tags, chunks: chunks.map((c, i) => ({ ...c, confidence: confidences[i] })), logLikelihood };
+}
+
+/** Raw chunk marginals through the model's calibration map (in place), if it has one. */
+function calibrated(model: TaggerModel, confidences: number[]): number[] {
+  const map = model.calibration;
+  if (map !== null) for (let c = 0; c < confidences.length; c++) confidences[c] = applyPlatt(map, confidences[c]);
+  return confidences;
+}
+
+/**
+ * Viterbi over a cached sentence lattice: the same scores and recursion as decodeSentence, on the
+ * JavaScript kernel (the WebAssembly one would copy the cache's whole matrix array per sentence).
+ */
+function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
+  const K = model.tags.length;
+  const T = lattice.length;
+  const params = { states: K, start: lattice.logStart, transitions: T > 1 ? lattice.logSteps : model.parameters.transitions.subarray(0, K * K), end: model.parameters.end };
+  const input = { length: T, scores: lattice.logEmissions.subarray(0, T * K), rows: null, transitionIndex: T > 1 ? lattice.stepIndex : null };
+  checkShapes(params, input, "decodeLattice");
+  return decodeViterbiJs(params, input, new Int32Array(T)).path;
+}
+
+/**
+ * The tagging path of first-order models (see sentence-lattice.ts): one lattice build, Viterbi,
+ * one scaled forward-backward and the chunk probabilities read off it. Null when the scaled
+ * lattice underflows; the caller then takes the log-space path.
+ */
+function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSentenceResult | null {
+  const K = model.tags.length;
+  const lattice = buildSentenceLattice(model, words);
+  const T = lattice.length;
+  const logLikelihood = computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled);
+  if (Number.isNaN(logLikelihood)) return null;
+  const path = decodeLattice(model, lattice);
+  const tags = new Array<string>(T);
+  for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
+  if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
+  const chunks = tagsToChunks(tags);
+  const confidences = calibrated(model, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
+  return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
+}
+
+/** Viterbi tags of every sentence of a document (no posteriors: the fast path for evaluation). */
+export function tagDocument(model: TaggerModel, sentences: readonly (readonly string[])[]): string[][] {
+  const fast = fastLatticeApplies(model);
+  return sentences.map((words, s) => {
+    if (words.length === 0) return [];
+    const path = fast ? decodeLattice(model, buildSentenceLattice(model, words)) : decodeSentence(model, words, s).path;
+    return Array.from(path, (k) => model.tags[k]);
+  });
+}
