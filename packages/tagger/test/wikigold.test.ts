@@ -5,9 +5,12 @@
  * uncertainty, and the CLI's evaluation agrees with the library's. Accuracy figures are reported
  * by the benchmark (bench/run.ts), not asserted here.
  */
+import { spawnSync } from "node:child_process";
 import { readFileSync } from "node:fs";
+import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
+import { evaluateModel } from "../src/evaluation/evaluation";
 import { parseColumnText } from "../src/text/conll";
 import { loadModel, serializeModel } from "../src/model/serialize";
 import { tagDocument, tagSentence, trainTagger } from "../src/model/tagger";
@@ -30,6 +33,31 @@ describe("wikigold whole-corpus checks", () => {
     expect(tagDocument(loaded, sentences)).toEqual(tagDocument(model, sentences));
     for (const words of sentences.slice(0, 40)) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
     expect(documentUncertainty(loaded, sentences.slice(0, 40))).toEqual(documentUncertainty(model, sentences.slice(0, 40)));
+  });
+
+  it("the CLI's evaluate --json gives the library's scores for the same training and test files", () => {
+    const packageDir = fileURLToPath(new URL("..", import.meta.url));
+    const run = spawnSync(join(packageDir, "node_modules", ".bin", "tsx"), [join(packageDir, "src", "cli.ts"), "evaluate", "--train", data + "train.bio", "--test", data + "test.bio", "--json"], {
+      encoding: "utf8",
+      cwd: packageDir,
+      env: { ...process.env, INIT_CWD: packageDir },
+      timeout: 120_000,
+    });
+    expect(run.stderr).toBe("");
+    expect(run.status).toBe(0);
+    const cli = JSON.parse(run.stdout);
+    const library = evaluateModel(trainTagger(train).model, test);
+    const entities = library.entities!;
+    // The CLI rounds its figures to 6 decimals.
+    expect(cli.tokens).toBe(library.tokens);
+    expect(cli.sentences).toBe(library.sentences);
+    expect(cli.tokenAccuracy).toBeCloseTo(library.tokenAccuracy, 6);
+    for (const key of ["precision", "recall", "f1"] as const) expect(cli.overall[key], key).toBeCloseTo(entities.overall[key], 6);
+    expect(Object.keys(cli.types)).toEqual(Object.keys(entities.types));
+    for (const [type, scores] of Object.entries(entities.types)) {
+      expect(cli.types[type].support, type).toBe(scores.support);
+      for (const key of ["precision", "recall", "f1"] as const) expect(cli.types[type][key], `${type} ${key}`).toBeCloseTo(scores[key], 6);
+    }
   });
 
   it("EM on unlabelled text keeps reporting and round-trips", () => {

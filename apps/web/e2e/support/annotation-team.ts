@@ -33,7 +33,7 @@ export type Team = {
 const PASSWORD = "a long enough passphrase";
 
 export const TEXTS = {
-  harbour: "Mira Quell met Tobin Vale at the Saltmarsh depot on Tuesday. Orla Finch signed for Brackenridge Freight.",
+  harbour: "Mira Quell met Tobin Vale at the Saltmarsh depot on Tuesday. Orla Finch signed for Ostrandel Freight.",
   ferry: "Edda Rusk took the ferry from Gullhaven to Lowmere Quay. The Corran Line owns the ferry.",
 };
 

@@ -23,8 +23,8 @@ describe("tagger CLI", () => {
     const docs = tinyDocuments.map((d) => `-DOCSTART- O\n\n${formatTaggedSentences(d.sentences)}`).join("");
     writeFileSync(join(dir, "train.bio"), docs);
     writeFileSync(join(dir, "test.bio"), formatTaggedSentences(tinyDocuments[0].sentences));
-    writeFileSync(join(dir, "bad.bio"), "John\tB-PER\nSmith\n\n");
-    writeFileSync(join(dir, "badtag.bio"), "John\tB-PER\nruns\tVERB\n");
+    writeFileSync(join(dir, "bad.bio"), "Taven\tB-PER\nOrrick\n\n");
+    writeFileSync(join(dir, "badtag.bio"), "Taven\tB-PER\nruns\tVERB\n");
   });
 
   it("trains, writes a model, and tags tokens read from a file or stdin", () => {
@@ -35,20 +35,20 @@ describe("tagger CLI", () => {
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
-    expect(lines.slice(0, 7)).toEqual(["John\tB-PER", "Smith\tI-PER", "lives\tO", "in\tO", "Paris\tB-LOC", ".\tO", ""]);
-    const fromStdin = run(["tag", "--model", "model.json"], { cwd: dir, input: "Mary\nvisited\nBerlin\n\nParis\n" });
-    expect(fromStdin.stdout).toBe("Mary\tB-PER\nvisited\tO\nBerlin\tB-LOC\n\nParis\tB-LOC\n\n");
+    expect(lines.slice(0, 7)).toEqual(["Taven\tB-PER", "Orrick\tI-PER", "lives\tO", "in\tO", "Velmora\tB-LOC", ".\tO", ""]);
+    const fromStdin = run(["tag", "--model", "model.json"], { cwd: dir, input: "Ilsa\nvisited\nKestrane\n\nVelmora\n" });
+    expect(fromStdin.stdout).toBe("Ilsa\tB-PER\nvisited\tO\nKestrane\tB-LOC\n\nVelmora\tB-LOC\n\n");
   });
 
   it("tag --json prints one object per sentence in input order with token-index spans", () => {
     const train = run(["train", "--train", "train.bio", "--out", "json-model.json", "--rare", "0"], { cwd: dir });
     expect(train.code).toBe(0);
-    const tagged = run(["tag", "--model", "json-model.json", "--json"], { cwd: dir, input: "Mary\nvisited\nBerlin\n\nParis\n" });
+    const tagged = run(["tag", "--model", "json-model.json", "--json"], { cwd: dir, input: "Ilsa\nvisited\nKestrane\n\nVelmora\n" });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.trimEnd().split("\n").map((line) => JSON.parse(line));
     expect(lines).toHaveLength(2);
     expect(Object.keys(lines[0])).toEqual(["tokens", "tags", "spans"]);
-    expect(lines[0].tokens).toEqual(["Mary", "visited", "Berlin"]);
+    expect(lines[0].tokens).toEqual(["Ilsa", "visited", "Kestrane"]);
     expect(lines[0].tags).toEqual(["B-PER", "O", "B-LOC"]);
     expect(lines[0].spans.map((s: { start: number; end: number; type: string }) => [s.start, s.end, s.type])).toEqual([
       [0, 1, "PER"],
@@ -59,7 +59,7 @@ describe("tagger CLI", () => {
       expect(s.confidence).toBeGreaterThan(0);
       expect(s.confidence).toBeLessThanOrEqual(1);
     }
-    expect(lines[1]).toMatchObject({ tokens: ["Paris"], tags: ["B-LOC"] });
+    expect(lines[1]).toMatchObject({ tokens: ["Velmora"], tags: ["B-LOC"] });
   });
 
   it("evaluate --json prints exactly the documented object", () => {
@@ -71,14 +71,47 @@ describe("tagger CLI", () => {
     expect(Object.keys(json.types.PER)).toEqual(["precision", "recall", "f1", "support"]);
     expect(json.tokens).toBe(20);
     expect(json.sentences).toBe(3);
-    for (const x of [json.overall.precision, json.overall.recall, json.overall.f1, json.tokenAccuracy]) {
-      expect(x).toBeGreaterThanOrEqual(0);
-      expect(x).toBeLessThanOrEqual(1);
-    }
-    const withModel = run(["evaluate", "--model", "model.json", "--test", "test.bio", "--json"], { cwd: dir });
-    expect(JSON.parse(withModel.stdout).trainSeconds).toBe(0);
-    const folds = run(["evaluate", "--train", "train.bio", "--test", "test.bio", "--json", "--folds", "3"], { cwd: dir });
-    expect(JSON.parse(folds.stdout).crossValidation.folds).toHaveLength(3);
+    // The test document is also training data, which the model tags back exactly (the tag test
+    // above checks the first sentence): every score is 1.
+    expect(json.overall).toEqual({ precision: 1, recall: 1, f1: 1 });
+    expect(json.types).toEqual({ LOC: { precision: 1, recall: 1, f1: 1, support: 3 }, ORG: { precision: 1, recall: 1, f1: 1, support: 1 }, PER: { precision: 1, recall: 1, f1: 1, support: 2 } });
+    expect(json.tokenAccuracy).toBe(1);
+
+    // The CLI prints figures rounded to 6 decimals. The same words with two gold tags changed, scored with the saved model, whose tags are still
+    // those of training: gold "Quorvel Corp" shrinks to "Quorvel" (B-ORG O) and "1990" becomes
+    // B-MISC. Counted by hand (CoNLL convention): gold chunks PER 2, LOC 3, ORG 1, MISC 1 = 7;
+    // predicted PER 2, LOC 3, ORG 1 = 6; correct PER 2, LOC 3 = 5 → P = 5/6, R = 5/7,
+    // F1 = 2·5/(6 + 7) = 10/13; ORG and MISC 0; tokens differ at "Corp" and "1990" → 18/20.
+    const altered = formatTaggedSentences(
+      tinyDocuments[0].sentences.map((sentence) => ({
+        words: sentence.words,
+        tags: sentence.tags.map((tag, t) => (sentence.words[t] === "Corp" ? "O" : sentence.words[t] === "1990" ? "B-MISC" : tag)),
+      })),
+    );
+    writeFileSync(join(dir, "altered.bio"), altered);
+    const withModel = run(["evaluate", "--model", "model.json", "--test", "altered.bio", "--json"], { cwd: dir });
+    const scored = JSON.parse(withModel.stdout);
+    expect(scored.trainSeconds).toBe(0);
+    expect(scored.overall.precision).toBeCloseTo(5 / 6, 6);
+    expect(scored.overall.recall).toBeCloseTo(5 / 7, 6);
+    expect(scored.overall.f1).toBeCloseTo(10 / 13, 6);
+    expect(scored.types).toEqual({
+      LOC: { precision: 1, recall: 1, f1: 1, support: 3 },
+      MISC: { precision: 0, recall: 0, f1: 0, support: 1 },
+      ORG: { precision: 0, recall: 0, f1: 0, support: 1 },
+      PER: { precision: 1, recall: 1, f1: 1, support: 2 },
+    });
+    expect(scored.tokenAccuracy).toBeCloseTo(0.9, 6);
+
+    // Cross-validation on three documents whose folds are counted by hand in
+    // cross-validation.test.ts: fold F1 1, 6/7, 4/5 → mean 31/35, sample sd √13/35.
+    const s = (word: string, tag: string) => `${word}\t${tag}\n\n`;
+    const clean = s("w", "B-X").repeat(6) + s("v", "O").repeat(6);
+    writeFileSync(join(dir, "cv.bio"), [clean, clean + s("w", "O") + s("v", "B-X"), clean + s("w", "O").repeat(3)].map((d) => `-DOCSTART- O\n\n${d}`).join(""));
+    const folds = JSON.parse(run(["evaluate", "--train", "cv.bio", "--test", "cv.bio", "--json", "--folds", "3"], { cwd: dir }).stdout).crossValidation;
+    expect(folds.folds.map((f: { f1: number }) => f.f1)).toEqual([1, 6 / 7, 4 / 5].map((x) => expect.closeTo(x, 6)));
+    expect(folds.f1.mean).toBeCloseTo(31 / 35, 6);
+    expect(folds.f1.std).toBeCloseTo(Math.sqrt(13) / 35, 6);
   });
 
   it("reports plain tags with null entity metrics", () => {

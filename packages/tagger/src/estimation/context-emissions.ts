@@ -7,7 +7,8 @@ import { addCount, createCountTable, findEntry, getCount, type CountTable } from
  * terms a segment starts at B-X, and at O after a non-O state (plain tags: at any change of
  * state). The table keeps (context, state, symbol) counts; a context is a previous state
  * (0..K−1), the sentence start (K), or a previous symbol s (K+1+s). Probabilities back off to the
- * context-free emission P(w | state) with Witten–Bell weights (Witten & Bell 1991), so a model
+ * context-free emission P(w | state) with Witten–Bell weights (Witten & Bell 1991, "The
+ * Zero-Frequency Problem", method C; see interpolateWittenBell), so a model
  * can fold the ratio P(w | state, context)/P(w | state) into its per-step transition scores.
  */
 export type ContextEmissionTable = {

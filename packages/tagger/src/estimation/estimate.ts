@@ -61,7 +61,8 @@ export type EstimationOptions = {
  * Turns counts into parameters (the M-step of EM as well as supervised training):
  * - start: add-λ over the K states, then each sentence bucket shrunk toward it;
  * - transitions: add-λ per row over K next states (+ the end state when on), with per-cell
- *   pseudo-counts; each position bucket shrunk toward the position-free row (MacKay & Peto 1995)
+ *   pseudo-counts; each position bucket shrunk toward the position-free row (MacKay & Peto 1995,
+ *   "A hierarchical Dirichlet language model"; see shrinkTowardParent)
  *   within the row's non-end mass;
  * - emissions: add-λ per state over `emissionBins` symbols;
  * - previous-word and trigram tables as described by their types.

@@ -3,8 +3,9 @@ import { DEFAULT_TRAINING_CONFIG, type TrainingConfig } from "./training-config"
 
 /**
  * The configuration that reproduces NLTK's supervised HMM (nltk.tag.hmm, NLTK 3.8,
- * HiddenMarkovModelTrainer.train_supervised with estimator LidstoneProbDist(fd, γ, bins)), as
- * REFERENCES.md specifies: one state per training tag, no position buckets, no word classes, no
+ * HiddenMarkovModelTrainer.train_supervised with estimator LidstoneProbDist(fd, γ, bins); read
+ * from its source, nltk/tag/hmm.py, and checked live by test/nltk.test.ts): one state per
+ * training tag, no position buckets, no word classes, no
  * suffixes, no end state, every training word known (an unknown word gets γ/(n(t)+γ·V)).
  */
 export function nltkCompatibleConfig(gamma: number): TrainingConfig {

@@ -28,8 +28,12 @@ describe("estimateAddLambda (Chen & Goodman 1998 §2.1; Manning & Schütze 1999 
   });
 });
 
-describe("shrinkTowardParent (MacKay & Peto 1995)", () => {
+describe("shrinkTowardParent (MacKay & Peto 1995, \"A hierarchical Dirichlet language model\")", () => {
   it("returns the parent without data and (n(c)+β·parent(c))/(n+β) with data", () => {
+    // MacKay & Peto (1995), "A hierarchical Dirichlet language model", Natural Language
+    // Engineering 1(3): the predictive distribution (F_{i|j} + α·m_i)/(F_j + α) of a Dirichlet
+    // prior with mean m and concentration α (§3; section number from memory). Worked by hand:
+    // parent (1/4, 3/4), β = 10; no data → the parent; counts 6, 4 → (6 + 2.5)/20.
     const parent = Float64Array.from([0.25, 0.75].map(Math.log));
     const out = new Float64Array(2);
     shrinkTowardParent(new Float64Array(2), 0, 2, 10, parent, 0, out, 0);
@@ -39,8 +43,14 @@ describe("shrinkTowardParent (MacKay & Peto 1995)", () => {
   });
 });
 
-describe("interpolateWittenBell (Witten & Bell 1991)", () => {
+describe("interpolateWittenBell (Witten & Bell 1991, \"The Zero-Frequency Problem\")", () => {
   it("gives (n(c) + u·backoff(c))/(n+u) with u distinct outcomes, and sums to 1", () => {
+    // Witten & Bell (1991), "The Zero-Frequency Problem: Estimating the Probabilities of Novel
+    // Events in Adaptive Text Compression", IEEE Trans. Information Theory 37(4), method C: after
+    // n events with u distinct ones, a novel event has probability u/(n+u); interpolated with a
+    // back-off distribution as in Chen & Goodman (1998), "An Empirical Study of Smoothing
+    // Techniques for Language Modeling", §2.5 (method letter and section from memory). Worked by
+    // hand below.
     const backoff = Float64Array.from([0.5, 0.3, 0.2].map(Math.log));
     const out = new Float64Array(3);
     // Context seen 4 times: outcome 0 three times, outcome 2 once → n = 4, u = 2.

@@ -61,7 +61,9 @@ export function estimateAddLambda(
 /**
  * Shrinks a sparse count vector toward a parent distribution with a Dirichlet prior of strength β
  * centred on the parent (MacKay & Peto 1995, "A hierarchical Dirichlet language model", Natural
- * Language Engineering 1(3)): P(c) = (n(c) + β·parent(c)) / (n + β). With n = 0 it returns the
+ * Language Engineering 1(3):289–307, the predictive distribution of their Dirichlet model with
+ * mean m and concentration α, P(i | j) = (F_{i|j} + α·m_i)/(F_j + α); §3, section number from
+ * memory): P(c) = (n(c) + β·parent(c)) / (n + β). With n = 0 it returns the
  * parent; as n grows the data take over. `parentLog` and the result are log-probabilities over C
  * outcomes; `scale` multiplies the result (log added), for rows that share mass with an end state.
  */
@@ -91,8 +93,12 @@ export function shrinkTowardParent(
 
 /**
  * Witten–Bell interpolation of a sparse context's counts with a back-off distribution (Witten &
- * Bell 1991, "The zero-frequency problem", IEEE Trans. Information Theory 37(4); in the form of
- * Chen & Goodman 1998 §2.5): P(c) = (n(c) + u·backoff(c)) / (n + u), u = number of distinct
+ * Bell 1991, "The Zero-Frequency Problem: Estimating the Probabilities of Novel Events in Adaptive
+ * Text Compression", IEEE Trans. Information Theory 37(4):1085–1094, method C: a novel event gets
+ * t/(n+t) with t distinct symbols seen; as an interpolated n-gram estimate in Chen & Goodman 1998,
+ * "An Empirical Study of Smoothing Techniques for Language Modeling", Harvard TR-10-98, §2.5
+ * "Witten-Bell smoothing"; method letter and section from memory):
+ * P(c) = (n(c) + u·backoff(c)) / (n + u), u = number of distinct
  * outcomes seen in the context. Bikel et al. (1997) back off their context-conditioned
  * distributions with weights of this kind. `entries`/`values` list the non-zero counts; the
  * result overwrites `out[outOffset..+cols]` (log), starting from the back-off row `backoffLog`.

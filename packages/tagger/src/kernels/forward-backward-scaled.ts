@@ -22,7 +22,8 @@ export function createScaledWorkspace(states: number, maxLength: number): Scaled
  * Fills `workspace` with α̂, β̂ and ĉ for one sequence and returns log P(observations).
  *
  * @param start K start probabilities (of the first state, before its emission).
- * @param steps probabilities, step t (t ≥ 1) at offset t·K²: steps[t·K² + i·K + j] = P(j | i) at t.
+ * @param steps probabilities: K×K matrices, row = from state.
+ * @param stepIndex matrix number of each step t ≥ 1: P(j | i) at t is steps[stepIndex[t]·K² + i·K + j].
  * @param emissions T×K emission probabilities.
  * @param end K end probabilities, or null for no end state.
  * @returns the log-likelihood, or NaN when a scale factor is 0 or not finite (the probability
@@ -33,6 +34,7 @@ export function computeScaledForwardBackward(
   T: number,
   start: Float64Array,
   steps: Float64Array,
+  stepIndex: Int32Array,
   emissions: Float64Array,
   end: Float64Array | null,
   workspace: ScaledWorkspace,
@@ -40,7 +42,11 @@ export function computeScaledForwardBackward(
   const KK = K * K;
   if (start.length < K) throw new RangeError(`computeScaledForwardBackward: start has length ${start.length}, expected K=${K}`);
   if (emissions.length < T * K) throw new RangeError(`computeScaledForwardBackward: emissions have length ${emissions.length}, expected T×K=${T * K}`);
-  if (T > 1 && steps.length < T * KK) throw new RangeError(`computeScaledForwardBackward: steps have length ${steps.length}, expected T×K²=${T * KK}`);
+  if (stepIndex.length < T) throw new RangeError(`computeScaledForwardBackward: stepIndex has length ${stepIndex.length}, expected T=${T}`);
+  for (let t = 1; t < T; t++) {
+    const m = stepIndex[t];
+    if (!(m >= 0 && (m + 1) * KK <= steps.length)) throw new RangeError(`computeScaledForwardBackward: stepIndex[${t}]=${m} outside the ${steps.length / KK} matrices`);
+  }
   if (end !== null && end.length < K) throw new RangeError(`computeScaledForwardBackward: end has length ${end.length}, expected K=${K}`);
   const { alpha, beta, scale, weighted } = workspace;
   if (alpha.length < T * K || beta.length < T * K || scale.length < T + 1 || weighted.length < K) {
@@ -60,7 +66,7 @@ export function computeScaledForwardBackward(
   for (let t = 1; t < T; t++) {
     const prev = (t - 1) * K;
     const cur = t * K;
-    const m = t * KK;
+    const m = stepIndex[t] * KK;
     sum = 0;
     for (let j = 0; j < K; j++) {
       let s = 0;
@@ -85,7 +91,7 @@ export function computeScaledForwardBackward(
   for (let t = T - 2; t >= 0; t--) {
     const cur = t * K;
     const next = (t + 1) * K;
-    const m = (t + 1) * KK;
+    const m = stepIndex[t + 1] * KK;
     const inv = 1 / scale[t + 1];
     for (let j = 0; j < K; j++) weighted[j] = emissions[next + j] * beta[next + j] * inv;
     for (let i = 0; i < K; i++) {

@@ -7,19 +7,26 @@ import { eisner, eisnerDays, enumeratePaths, iceCream, iceCreamSymbols, randomHm
 import { logSumExp } from "../util/math";
 
 describe("computePosteriors", () => {
-  it("J&M 3rd ed. draft, Appendix A ice cream: gamma(H) = .9366, .3961, .8226 for 3 1 3", () => {
+  it("ice-cream HMM of J&M 3rd ed. draft, Appendix A: gamma(H) = .9366, .3961, .8226 for 3 1 3, computed from the book's parameters", () => {
+    // The book gives the model, not these posteriors. From the hand-worked forward values
+    // (forward.test.ts) and β: β2 = (.6·.4 + .4·.1, .5·.4 + .5·.1) = (.28, .25),
+    // β1(H) = .6·.2·.28 + .4·.5·.25 = .0836, so γ1(H) = .32·.0836/.028562 = .9366; likewise the rest.
     const { params, emissionTable } = iceCream;
     const { posteriors } = computePosteriors(params, symbolsInput(emissionTable, iceCreamSymbols([3, 1, 3])));
     expect([posteriors[0], posteriors[2], posteriors[4]].map((p) => Number(p.toFixed(4)))).toEqual([0.9366, 0.3961, 0.8226]);
   });
 
-  it("Russell & Norvig, AIMA 3rd ed. §15.2: smoothed gamma(R) = .8673, .8204, .3075, .8204, .8673", () => {
+  it("Russell & Norvig, AIMA 3rd ed. §15.2 umbrella model: smoothed gamma(R) = .8673, .8204, .3075, .8204, .8673, computed from the book's parameters", () => {
+    // AIMA prints smoothing only for its two-day example (§15.2.2, .883); these five-day values are
+    // computed from its parameters (and agree with brute force, as the random-model test checks).
     const { params, emissionTable } = umbrella;
     const { posteriors } = computePosteriors(params, symbolsInput(emissionTable, Int32Array.from([0, 0, 1, 0, 0])));
     expect([0, 1, 2, 3, 4].map((t) => Number(posteriors[2 * t].toFixed(4)))).toEqual([0.8673, 0.8204, 0.3075, 0.8204, 0.8673]);
   });
 
-  it("Eisner (2002) spreadsheet: P(H) day 1 .871, day 2 .977; with day 1 changed to 1: .491, .918", () => {
+  it("Eisner (2002) spreadsheet: P(H) day 1 .871, day 2 .977; with day 1 changed to 1: .491, .918 (as the spreadsheet shows them)", () => {
+    // Eisner (2002), "An Interactive Spreadsheet for Teaching the Forward-Backward Algorithm", the
+    // posterior column of the spreadsheet for its 33 days and for day 1 changed to one ice cream.
     const { params, emissionTable } = eisner;
     const first = computePosteriors(params, symbolsInput(emissionTable, iceCreamSymbols(eisnerDays))).posteriors;
     expect([first[1], first[3]].map((p) => Number(p.toFixed(3)))).toEqual([0.871, 0.977]);

@@ -5,7 +5,12 @@ import { eisner, eisnerDays, enumeratePaths, healthFever, iceCream, iceCreamSymb
 import { createTransitionCache } from "./transition-cache";
 
 describe("computeForward", () => {
-  it("J&M 3rd ed. draft, Appendix A ice cream: alphas for 3 1 3 and P(3 1 3) = 0.028562", () => {
+  it("ice-cream HMM of J&M 3rd ed. draft, Appendix A: alphas for 3 1 3 and P(3 1 3) = 0.028562, computed from the book's parameters", () => {
+    // Jurafsky & Martin, Speech and Language Processing, 3rd ed. draft, Appendix A "Hidden Markov
+    // Models": the model (π, A, B) is the book's; the numbers are worked by hand from it:
+    // α1 = (.8·.4, .2·.1) = (.32, .02); α2(H) = (.32·.6 + .02·.5)·.2 = .0404,
+    // α2(C) = (.32·.4 + .02·.5)·.5 = .069; α3(H) = (.0404·.6 + .069·.5)·.4 = .023496,
+    // α3(C) = (.0404·.4 + .069·.5)·.1 = .005066; P(3 1 3) = .023496 + .005066 = .028562.
     const { params, emissionTable } = iceCream;
     const { alpha, logLikelihood } = computeForward(params, symbolsInput(emissionTable, iceCreamSymbols([3, 1, 3])));
     const expected = [0.32, 0.02, 0.0404, 0.069, 0.023496, 0.005066];
@@ -13,7 +18,11 @@ describe("computeForward", () => {
     expect(Math.exp(logLikelihood)).toBeCloseTo(0.028562, 12);
   });
 
-  it("Russell & Norvig, AIMA 3rd ed. §15.2: filtering .818, .883 and P(T T F T T) = 0.0343037005", () => {
+  it("Russell & Norvig, AIMA 3rd ed. §15.2: filtering .818, .883 (printed) and P(T T F T T) = 0.0343037005 (computed from the book's parameters)", () => {
+    // Russell & Norvig, Artificial Intelligence: A Modern Approach, 3rd ed., §15.2.1, umbrella
+    // world: the book prints the filtered P(rain) .818 and .883 for days 1 and 2. It does not print
+    // P(T T F T T); that value is computed from its parameters (and matches the brute-force sum
+    // over all 32 paths, as the random-model test below checks in general).
     const { params, emissionTable } = umbrella;
     const { alpha, logLikelihood } = computeForward(params, symbolsInput(emissionTable, Int32Array.from([0, 0, 1, 0, 0])));
     const filtered = (t: number) => Math.exp(alpha[2 * t]) / (Math.exp(alpha[2 * t]) + Math.exp(alpha[2 * t + 1]));
@@ -22,13 +31,20 @@ describe("computeForward", () => {
     expect(Math.exp(logLikelihood)).toBeCloseTo(0.0343037005, 10);
   });
 
-  it("Wikipedia 'Viterbi algorithm' example: P(normal cold dizzy) = 0.03628", () => {
+  it("Wikipedia 'Viterbi algorithm' example model: P(normal cold dizzy) = 0.03628, computed from its parameters", () => {
+    // Wikipedia, "Viterbi algorithm", section "Example" (Healthy/Fever): the article prints the
+    // model and the best path, not this likelihood. By hand: α1 = (.6·.5, .4·.1) = (.3, .04);
+    // α2 = ((.3·.7 + .04·.4)·.4, (.3·.3 + .04·.6)·.3) = (.0904, .0342);
+    // α3 = ((.0904·.7 + .0342·.4)·.1, (.0904·.3 + .0342·.6)·.6) = (.007696, .028584); sum .03628.
     const { params, emissionTable } = healthFever;
     const { logLikelihood } = computeForward(params, symbolsInput(emissionTable, Int32Array.from([0, 1, 2])));
     expect(Math.exp(logLikelihood)).toBeCloseTo(0.03628, 12);
   });
 
-  it("Eisner (2002) spreadsheet, 33 days with STOP: P(data) = 9.12756e-19", () => {
+  it("Eisner (2002) spreadsheet model, 33 days with STOP: P(data) = 9.12756e-19, computed from its parameters", () => {
+    // Eisner (2002), "An Interactive Spreadsheet for Teaching the Forward-Backward Algorithm":
+    // the parameters and days are the spreadsheet's; the likelihood is computed from them, not
+    // taken from the source, so it pins the value against later changes.
     const { params, emissionTable } = eisner;
     const { logLikelihood } = computeForward(params, symbolsInput(emissionTable, iceCreamSymbols(eisnerDays)));
     expect(Math.exp(logLikelihood) / 9.12756e-19).toBeCloseTo(1, 5);

@@ -4,14 +4,20 @@ import { eisner, enumeratePaths, healthFever, iceCream, iceCreamSymbols, randomH
 import { createViterbiWorkspace, decodeViterbi, decodeViterbiJs } from "./viterbi";
 
 describe("decodeViterbi", () => {
-  it("J&M 3rd ed. draft, Appendix A ice cream (no end state): 3 1 3 → H C H, p = 0.0128", () => {
+  it("ice-cream HMM of J&M 3rd ed. draft, Appendix A (no end state): 3 1 3 → H C H, p = 0.0128, computed from the book's parameters", () => {
+    // Jurafsky & Martin, Speech and Language Processing, 3rd ed. draft, Appendix A: the model is
+    // the book's; worked by hand from it: δ1 = (.32, .02); δ2(H) = max(.32·.6, .02·.5)·.2 = .0384,
+    // δ2(C) = max(.32·.4, .02·.5)·.5 = .064; δ3(H) = max(.0384·.6, .064·.5)·.4 = .0128 (from C),
+    // δ3(C) = max(.0384·.4, .064·.5)·.1 = .0032 → best H C H with p = .0128.
     const { params, emissionTable } = iceCream;
     const { path, logProbability } = decodeViterbi(params, symbolsInput(emissionTable, iceCreamSymbols([3, 1, 3])));
     expect(Array.from(path)).toEqual([0, 1, 0]);
     expect(Math.exp(logProbability)).toBeCloseTo(0.0128, 12);
   });
 
-  it("Russell & Norvig, AIMA 3rd ed. §15.2 umbrella: T T F T T → R R ¬R R R, p = 0.011573604", () => {
+  it("Russell & Norvig, AIMA 3rd ed. §15.2 umbrella: T T F T T → R R ¬R R R (printed), p = 0.011573604 (computed from the book's parameters)", () => {
+    // AIMA 3rd ed. §15.2.3, Fig. 15.5: the book prints the best path; its probability is computed
+    // from the book's parameters (the book prints normalised messages, checked in the next test).
     const { params, emissionTable } = umbrella;
     const { path, logProbability } = decodeViterbi(params, symbolsInput(emissionTable, Int32Array.from([0, 0, 1, 0, 0])));
     expect(Array.from(path)).toEqual([0, 0, 1, 0, 0]);
@@ -27,7 +33,8 @@ describe("decodeViterbi", () => {
     expect(Number((Math.exp(workspace.delta[9]) / 0.55).toFixed(4))).toBe(0.0024);
   });
 
-  it("Wikipedia 'Viterbi algorithm' example: normal cold dizzy → H H F, p = 0.01512", () => {
+  it("Wikipedia 'Viterbi algorithm' example: normal cold dizzy → H H F, p = 0.01512 (both printed)", () => {
+    // Wikipedia, "Viterbi algorithm", section "Example" (Healthy/Fever).
     const { params, emissionTable } = healthFever;
     const { path, logProbability } = decodeViterbi(params, symbolsInput(emissionTable, Int32Array.from([0, 1, 2])));
     expect(Array.from(path)).toEqual([0, 0, 1]);

@@ -48,8 +48,10 @@ export function decodeViterbi(
 
 /**
  * The JavaScript paths of {@link decodeViterbi} (compiled per K up to UNROLL_LIMIT, plain loops
- * beyond), for engines without WebAssembly SIMD and the inputs the kernel declines; exported
- * only so that the tests can hold the kernels to each other. Expects checked shapes and T ≥ 1.
+ * beyond), for engines without WebAssembly SIMD and the inputs the kernel declines; exported so
+ * that the tests can hold the kernels to each other, and for the tagging path, whose step
+ * matrices sit in a large per-model cache that the WebAssembly kernel would copy whole.
+ * Expects checked shapes and T ≥ 1.
  */
 export function decodeViterbiJs(params: HmmParams, input: EmissionInput, path: Int32Array, workspace?: ViterbiWorkspace): { path: Int32Array; logProbability: number } {
   const K = params.states;

@@ -3,7 +3,8 @@ import { describe, expect, it } from "vitest";
 import { createRng } from "../util/random";
 import { computeConfusionMatrix } from "./confusion";
 
-// NLTK from Debian's python3-nltk as a live reference (REFERENCES.md: run with /usr/bin/python3).
+// NLTK from Debian's python3-nltk as a live reference; /usr/bin/python3 because another python3
+// earlier on PATH may not see apt's packages.
 const PYTHON = "/usr/bin/python3";
 const hasNltk = spawnSync(PYTHON, ["-c", "import nltk"]).status === 0;
 

@@ -41,7 +41,8 @@ describe("buildSentenceLattice", () => {
       expect(Array.from(lattice.logStart)).toEqual(Array.from(params.start));
       for (let t = 1; t < T; t++) {
         const m = input.transitionIndex === null ? 0 : input.transitionIndex[t];
-        expect(Array.from(lattice.logSteps.subarray(t * K * K, (t + 1) * K * K))).toEqual(Array.from(params.transitions.subarray(m * K * K, (m + 1) * K * K)));
+        const own = lattice.stepIndex[t];
+        expect(Array.from(lattice.logSteps.subarray(own * K * K, (own + 1) * K * K))).toEqual(Array.from(params.transitions.subarray(m * K * K, (m + 1) * K * K)));
       }
     }
   });
@@ -94,7 +95,7 @@ describe("computeScaledForwardBackward", () => {
       for (let t = 0; t < T; t++) for (let k = 0; k < K; k++) emissions[t * K + k] = Math.exp(emissionTable[rows[t] * K + k]);
       const ws = createScaledWorkspace(K, T);
       const end = params.end === null ? null : Float64Array.from(params.end, Math.exp);
-      const ll = computeScaledForwardBackward(K, T, Float64Array.from(params.start, Math.exp), steps, emissions, end, ws);
+      const ll = computeScaledForwardBackward(K, T, Float64Array.from(params.start, Math.exp), steps, index, emissions, end, ws);
       expect(ll, `seed ${seed} trial ${trial}`).toBeCloseTo(brute.logLikelihood, 10);
       for (let x = 0; x < T * K; x++) expect(ws.alpha[x] * ws.beta[x], `seed ${seed} trial ${trial}`).toBeCloseTo(brute.posteriors[x], 10);
       expect(computePosteriors(params, input).logLikelihood).toBeCloseTo(ll, 10);
@@ -104,11 +105,12 @@ describe("computeScaledForwardBackward", () => {
   it("returns NaN when a step underflows or has probability 0, and scales anything above that", () => {
     const ws = createScaledWorkspace(2, 2);
     const steps = new Float64Array(8).fill(0.5);
+    const index = Int32Array.of(0, 1);
     // 1e-200 · 1e-200 is below the smallest double: the first scale factor is 0.
-    expect(computeScaledForwardBackward(2, 2, Float64Array.of(1e-200, 1e-200), steps, Float64Array.of(1e-200, 1e-200, 1, 1), null, ws)).toBeNaN();
-    expect(computeScaledForwardBackward(2, 2, Float64Array.of(0.5, 0.5), steps, Float64Array.of(1, 1, 0, 0), null, ws)).toBeNaN();
+    expect(computeScaledForwardBackward(2, 2, Float64Array.of(1e-200, 1e-200), steps, index, Float64Array.of(1e-200, 1e-200, 1, 1), null, ws)).toBeNaN();
+    expect(computeScaledForwardBackward(2, 2, Float64Array.of(0.5, 0.5), steps, index, Float64Array.of(1, 1, 0, 0), null, ws)).toBeNaN();
     // Per-token factors keep tiny probabilities representable: log(0.5·1e-200·0.5·1e-200 + …) over 2 tokens.
-    const ll = computeScaledForwardBackward(2, 2, Float64Array.of(0.5, 0.5), steps, Float64Array.of(1e-200, 1e-200, 1e-200, 1e-200), null, ws);
+    const ll = computeScaledForwardBackward(2, 2, Float64Array.of(0.5, 0.5), steps, index, Float64Array.of(1e-200, 1e-200, 1e-200, 1e-200), null, ws);
     expect(ll).toBeCloseTo(2 * Math.log(1e-200), 8);
   });
 });

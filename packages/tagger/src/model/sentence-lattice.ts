@@ -1,5 +1,5 @@
 import { contextEmissionLogRatio } from "../estimation/context-emissions";
-import { findEntry, getCount } from "../estimation/count-table";
+import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixLogRatio } from "../estimation/suffix-model";
@@ -36,7 +36,12 @@ export type SentenceLattice = {
   /** K log / probability start scores (start distribution plus the sentence-start context ratio). */
   logStart: Float64Array;
   start: Float64Array;
-  /** T×K² per-step transition scores (step t at t·K²; step 0 unused), log and probability. */
+  /**
+   * Per-step transition scores: step t (t ≥ 1) reads the K×K matrix number stepIndex[t] of
+   * logSteps (log) and steps (probabilities). These arrays are the model cache's own (matrices
+   * per previous symbol, after a patch area where steps with word-specific cells are written), so
+   * a step costs no copy unless its word overrides cells.
+   */
   logSteps: Float64Array;
   steps: Float64Array;
   /** T×K emission scores, log and probability. */
@@ -44,7 +49,7 @@ export type SentenceLattice = {
   emissions: Float64Array;
   /** K end probabilities, or null. */
   end: Float64Array | null;
-  /** Identity step index 0..T−1 (every step reads its own matrix). */
+  /** Matrix number of each step (entry 0 unused). */
   stepIndex: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
@@ -61,15 +66,34 @@ type Cache = {
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
-  /** The same with the context-free context-emission ratio added, and its exp. */
+  /**
+   * The same with the context-free context-emission ratio added, and its exp: matrices
+   * 0..patches−1 are the per-sentence patch area (step t patched into matrix t), slot s is
+   * matrix patches + s.
+   */
   previousLog: Float64Array;
   previousExp: Float64Array;
+  patches: number;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
   previousHasRow: Uint8Array;
+  /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
+  previousAnyRow: Uint8Array;
   previousCount: number;
-  /** Per symbol, CSR of the (context ≤ K, state) cells with a count for that symbol. */
+  /**
+   * Per symbol, CSR of the segment-start cells (i·K + j, context i) and start states (K·K + j,
+   * context K) where that symbol has a count, with the exact log context-emission ratio there.
+   */
   exceptionOffsets: Int32Array | null;
   exceptionCells: Int32Array | null;
+  exceptionRatios: Float64Array | null;
+  /**
+   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous·S + symbol) →
+   * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
+   */
+  pairIndex: CountTable | null;
+  pairStarts: Int32Array | null;
+  pairStates: Int32Array | null;
+  pairRatios: Float64Array | null;
   /** Context-free parts: segment-start cells' log(u/(n+u)) (0 without a row), and the start's. */
   segmentZero: Float64Array;
   startZero: Float64Array;
@@ -96,12 +120,12 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     symbols: new Int32Array(capacity),
     logStart: new Float64Array(K),
     start: new Float64Array(K),
-    logSteps: new Float64Array(capacity * K * K),
-    steps: new Float64Array(capacity * K * K),
+    logSteps: new Float64Array(0),
+    steps: new Float64Array(0),
     logEmissions: new Float64Array(capacity * K),
     emissions: new Float64Array(capacity * K),
     end: null,
-    stepIndex: Int32Array.from({ length: capacity }, (_, t) => t),
+    stepIndex: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
   };
 }
@@ -118,6 +142,11 @@ function createCache(model: TaggerModel): Cache {
   const startZero = new Float64Array(K);
   let exceptionOffsets: Int32Array | null = null;
   let exceptionCells: Int32Array | null = null;
+  let exceptionRatios: Float64Array | null = null;
+  let pairIndex: CountTable | null = null;
+  let pairStartsOut: Int32Array | null = null;
+  let pairStates: Int32Array | null = null;
+  let pairRatios: Float64Array | null = null;
   const table = parameters.contextEmission;
   if (table !== null && model.segmentStarts !== null) {
     // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
@@ -130,21 +159,72 @@ function createCache(model: TaggerModel): Cache {
     };
     for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) segmentZero[i * K + j] = model.segmentStarts[i * K + j] === 1 ? zero(i, j) : 0;
     for (let j = 0; j < K; j++) startZero[j] = zero(K, j);
-    // Cells (context ≤ K, state) by symbol, for the words that have a count there.
-    const sizes = new Int32Array(S + 1);
+    // Cells (context ≤ K, state) by symbol, for the words that have a count there; only cells
+    // where that context applies (segment starts, and the sentence start).
     const { counts } = table;
-    const limit = (K + 1) * K * S;
-    for (let e = 0; e < counts.size; e++) if (counts.keys[e] < limit) sizes[(counts.keys[e] % S) + 1]++;
+    const applies = (key: number): boolean => {
+      const row = Math.floor(key / S);
+      const context = Math.floor(row / K);
+      if (context > K) return false;
+      return context === K || model.segmentStarts![context * K + (row % K)] === 1;
+    };
+    const sizes = new Int32Array(S + 1);
+    for (let e = 0; e < counts.size; e++) if (applies(counts.keys[e])) sizes[(counts.keys[e] % S) + 1]++;
     exceptionOffsets = new Int32Array(S + 1);
     for (let s = 0; s < S; s++) exceptionOffsets[s + 1] = exceptionOffsets[s] + sizes[s + 1];
     exceptionCells = new Int32Array(exceptionOffsets[S]);
+    exceptionRatios = new Float64Array(exceptionOffsets[S]);
     const fill = exceptionOffsets.slice(0, S);
+    // Inside-segment contexts: group the entries by (previous symbol, symbol).
+    pairIndex = createCountTable();
+    const pairSizes: number[] = [];
+    // Segment cells first, then the start cells (context K), within each symbol's list.
+    for (const startCells of [false, true]) {
+      for (let e = 0; e < counts.size; e++) {
+        const key = counts.keys[e];
+        if (!applies(key)) continue;
+        const symbol = key % S;
+        const row = (key - symbol) / S;
+        const context = Math.floor(row / K);
+        if ((context === K) !== startCells) continue;
+        const j = row % K;
+        const x = fill[symbol]++;
+        exceptionCells[x] = context === K ? KK + j : context * K + j;
+        exceptionRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
+      }
+    }
     for (let e = 0; e < counts.size; e++) {
       const key = counts.keys[e];
-      if (key >= limit) continue;
       const symbol = key % S;
-      exceptionCells[fill[symbol]++] = (key - symbol) / S;
+      const row = (key - symbol) / S;
+      const context = Math.floor(row / K);
+      if (context > K) {
+        const pair = (context - K - 1) * S + symbol;
+        const found = findEntry(pairIndex, pair);
+        if (found < 0) {
+          addCount(pairIndex, pair, pairSizes.length);
+          pairSizes.push(1);
+        } else pairSizes[pairIndex.values[found]]++;
+      }
     }
+    const pairStarts = new Int32Array(pairSizes.length + 1);
+    for (let q = 0; q < pairSizes.length; q++) pairStarts[q + 1] = pairStarts[q] + pairSizes[q];
+    pairStates = new Int32Array(pairStarts[pairSizes.length]);
+    pairRatios = new Float64Array(pairStarts[pairSizes.length]);
+    const pairFill = pairStarts.slice(0, pairSizes.length);
+    for (let e = 0; e < counts.size; e++) {
+      const key = counts.keys[e];
+      const symbol = key % S;
+      const row = (key - symbol) / S;
+      const context = Math.floor(row / K);
+      if (context <= K) continue;
+      const j = row % K;
+      const q = getCount(pairIndex, (context - K - 1) * S + symbol);
+      const x = pairFill[q]++;
+      pairStates[x] = j;
+      pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
+    }
+    pairStartsOut = pairStarts;
   }
   return {
     K,
@@ -156,12 +236,19 @@ function createCache(model: TaggerModel): Cache {
     wordCount: 0,
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
-    previousLog: new Float64Array(64 * KK),
-    previousExp: new Float64Array(64 * KK),
+    previousLog: new Float64Array(128 * KK),
+    previousExp: new Float64Array(128 * KK),
+    patches: 64,
     previousHasRow: new Uint8Array(64 * K),
+    previousAnyRow: new Uint8Array(64),
     previousCount: 0,
     exceptionOffsets,
     exceptionCells,
+    exceptionRatios,
+    pairIndex,
+    pairStarts: pairStartsOut,
+    pairStates,
+    pairRatios,
     segmentZero,
     startZero,
     end,
@@ -222,17 +309,15 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
 function previousEntry(model: TaggerModel, cache: Cache, previous: number): number {
   const slot = cache.previousSlot[previous];
   if (slot >= 0) return slot;
-  if (cache.previousCount >= MAX_PREVIOUS_ENTRIES) {
-    cache.previousSlot.fill(-1);
-    cache.previousCount = 0;
-  }
   const K = cache.K;
   const KK = K * K;
   const entry = cache.previousCount++;
   cache.previousBase = grow(cache.previousBase, (entry + 1) * KK);
-  cache.previousLog = grow(cache.previousLog, (entry + 1) * KK);
-  cache.previousExp = grow(cache.previousExp, (entry + 1) * KK);
+  cache.previousLog = grow(cache.previousLog, (cache.patches + entry + 1) * KK);
+  cache.previousExp = grow(cache.previousExp, (cache.patches + entry + 1) * KK);
   cache.previousHasRow = grow(cache.previousHasRow, (entry + 1) * K);
+  cache.previousAnyRow = grow(cache.previousAnyRow, entry + 1);
+  cache.previousAnyRow[entry] = 0;
   const { parameters } = model;
   const base = parameters.transitions;
   const table = parameters.prevWord;
@@ -257,7 +342,8 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
     }
   }
   const folded = cache.previousLog;
-  for (let x = 0; x < KK; x++) folded[out0 + x] = logs[out0 + x];
+  const at = (cache.patches + entry) * KK;
+  for (let x = 0; x < KK; x++) folded[at + x] = logs[out0 + x];
   const hasRow = cache.previousHasRow;
   hasRow.fill(0, entry * K, entry * K + K);
   if (contextTable !== null && segmentStarts !== null) {
@@ -267,16 +353,32 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
       let wordZero = 0;
       if (found >= 0) {
         hasRow[entry * K + j] = 1;
+        cache.previousAnyRow[entry] = 1;
         const n = contextTable.totals.values[found];
         const u = contextTable.distinct.values[found];
         wordZero = Math.log((0 + u) / (n + u));
       }
-      for (let i = 0; i < K; i++) folded[out0 + i * K + j] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
+      for (let i = 0; i < K; i++) folded[at + i * K + j] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
     }
   }
-  for (let x = 0; x < KK; x++) cache.previousExp[out0 + x] = Math.exp(folded[out0 + x]);
+  for (let x = 0; x < KK; x++) cache.previousExp[at + x] = Math.exp(folded[at + x]);
   cache.previousSlot[previous] = entry;
   return entry;
+}
+
+/** Makes the patch area hold `length` matrices, moving the slots behind it. */
+function reservePatches(cache: Cache, length: number): void {
+  if (cache.patches >= length) return;
+  const KK = cache.K * cache.K;
+  const patches = Math.max(length, 2 * cache.patches);
+  const size = (patches + Math.max(cache.previousCount, 64)) * KK;
+  const log = new Float64Array(size);
+  const exp = new Float64Array(size);
+  log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
+  exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
+  cache.previousLog = log;
+  cache.previousExp = exp;
+  cache.patches = patches;
 }
 
 /**
@@ -295,7 +397,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   lattice.length = T;
   lattice.end = cache.end;
-  const { symbols, logEmissions, emissions, logSteps, steps, logStart, start } = lattice;
+  const { symbols, logEmissions, emissions, logStart, start } = lattice;
   for (let t = 0; t < T; t++) {
     const entry = wordEntry(model, cache, words[t], t === 0);
     symbols[t] = cache.wordSymbol[entry];
@@ -311,65 +413,89 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const segmentStarts = model.segmentStarts;
   const S = model.statistics.symbols;
   const withContext = contextTable !== null && segmentStarts !== null;
-  const offsets = cache.exceptionOffsets;
-  const cells = cache.exceptionCells;
+  const offsets = cache.exceptionOffsets!;
+  const cells = cache.exceptionCells!;
+  const ratios = cache.exceptionRatios!;
   // Sentence start: the start distribution plus the context ratio for context K (sentence start).
   const s0 = symbols[0];
   for (let j = 0; j < K; j++) logStart[j] = parameters.start[j];
   if (withContext) {
     for (let j = 0; j < K; j++) logStart[j] += cache.startZero[j];
-    for (let x = offsets![s0]; x < offsets![s0 + 1]; x++) {
-      const cell = cells![x];
-      if (Math.floor(cell / K) !== K) continue;
-      const j = cell % K;
-      logStart[j] = parameters.start[j] + contextEmissionLogRatio(contextTable, S, K, K, j, s0, parameters.emissions[s0 * K + j]);
+    for (let x = offsets[s0]; x < offsets[s0 + 1]; x++) {
+      const cell = cells[x];
+      if (cell >= KK) logStart[cell - KK] = parameters.start[cell - KK] + ratios[x];
     }
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
   if (T < 2) return lattice;
+  reservePatches(cache, T);
+  // Start afresh between sentences only: the steps of this one point into the slots.
+  if (cache.previousCount + T > MAX_PREVIOUS_ENTRIES) {
+    cache.previousSlot.fill(-1);
+    cache.previousCount = 0;
+  }
+  const stepIndex = lattice.stepIndex;
   if (parameters.prevWord === null && !withContext) {
-    for (let t = 1; t < T; t++) {
-      logSteps.set(parameters.transitions.subarray(0, KK), t * KK);
-      for (let x = 0; x < KK; x++) steps[t * KK + x] = Math.exp(parameters.transitions[x]);
+    // One matrix for every step: the base transitions, in patch matrix 0.
+    for (let x = 0; x < KK; x++) {
+      cache.previousLog[x] = parameters.transitions[x];
+      cache.previousExp[x] = Math.exp(parameters.transitions[x]);
     }
+    lattice.logSteps = cache.previousLog;
+    lattice.steps = cache.previousExp;
+    for (let t = 1; t < T; t++) stepIndex[t] = 0;
     return lattice;
   }
   for (let t = 1; t < T; t++) {
     const previous = symbols[t - 1];
     const slot = previousEntry(model, cache, previous);
-    const out = t * KK;
-    const foldedLog = cache.previousLog;
-    const foldedExp = cache.previousExp;
-    for (let x = 0, from = slot * KK; x < KK; x++) {
-      logSteps[out + x] = foldedLog[from + x];
-      steps[out + x] = foldedExp[from + x];
-    }
+    const matrix = cache.patches + slot;
+    stepIndex[t] = matrix;
     if (!withContext) continue;
     const symbol = symbols[t];
-    // Segment-start cells where this word was seen after state i.
-    for (let x = offsets![symbol]; x < offsets![symbol + 1]; x++) {
-      const cell = cells![x];
-      const i = Math.floor(cell / K);
-      const j = cell % K;
-      if (i >= K || segmentStarts[i * K + j] !== 1) continue;
-      const a = out + i * K + j;
-      logSteps[a] = cache.previousBase[slot * KK + i * K + j] + contextEmissionLogRatio(contextTable, S, K, i, j, symbol, parameters.emissions[symbol * K + j]);
-      steps[a] = Math.exp(logSteps[a]);
+    const first = offsets[symbol];
+    const last = offsets[symbol + 1];
+    // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
+    const hasSegmentCells = first < last && cells[first] < KK;
+    const group = cache.previousAnyRow[slot] === 0 ? -1 : findEntry(cache.pairIndex!, previous * S + symbol);
+    if (!hasSegmentCells && group < 0) continue;
+    // This word overrides cells: patch a copy of the slot's matrix into patch matrix t.
+    const logs = cache.previousLog;
+    const exps = cache.previousExp;
+    const out = t * KK;
+    const src = matrix * KK;
+    for (let x = 0; x < KK; x++) {
+      logs[out + x] = logs[src + x];
+      exps[out + x] = exps[src + x];
+    }
+    stepIndex[t] = t;
+    const base = cache.previousBase;
+    const from = slot * KK;
+    // Segment-start cells where this word was seen after state i (exact ratio precomputed).
+    for (let x = first; x < last; x++) {
+      const cell = cells[x];
+      if (cell >= KK) continue;
+      const v = base[from + cell] + ratios[x];
+      logs[out + cell] = v;
+      exps[out + cell] = Math.exp(v);
     }
     // Inside-segment cells whose context (the previous word) was seen followed by this word.
-    const hasRow = cache.previousHasRow;
-    const contextRow = (K + 1 + previous) * K;
-    for (let j = 0; j < K; j++) {
-      if (hasRow[slot * K + j] === 0) continue;
-      if (getCount(contextTable.counts, (contextRow + j) * S + symbol) === 0) continue;
-      const ratio = contextEmissionLogRatio(contextTable, S, K, K + 1 + previous, j, symbol, parameters.emissions[symbol * K + j]);
+    if (group < 0) continue;
+    const q = cache.pairIndex!.values[group];
+    const pairStates = cache.pairStates!;
+    const pairRatios = cache.pairRatios!;
+    for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
+      const j = pairStates[y];
+      const ratio = pairRatios[y];
       for (let i = 0; i < K; i++) {
         if (segmentStarts[i * K + j] === 1) continue;
-        const a = out + i * K + j;
-        logSteps[a] = cache.previousBase[slot * KK + i * K + j] + ratio;
-        steps[a] = Math.exp(logSteps[a]);
+        const v = base[from + i * K + j] + ratio;
+        logs[out + i * K + j] = v;
+        exps[out + i * K + j] = Math.exp(v);
       }
     }
   }
+  lattice.logSteps = cache.previousLog;
+  lattice.steps = cache.previousExp;
   return lattice;
 }

@@ -7,8 +7,8 @@ import { tagDocument, tagSentence, trainTagger } from "./tagger";
 import { tinyDocuments, tinyUnlabelled } from "../testing/tiny-corpus";
 
 const probe = [
-  ["Lisa", "Brown", "works", "for", "Acme", "Corp", "in", "Rome", "."],
-  ["Zork", "visited", "Paris", "in", "1990", "."],
+  ["Nessa", "Arvell", "works", "for", "Quorvel", "Corp", "in", "Zerith", "."],
+  ["Zorvik", "visited", "Velmora", "in", "1990", "."],
 ];
 
 describe("serializeModel / loadModel", () => {
@@ -44,7 +44,7 @@ describe("serializeModel / loadModel", () => {
     expect(json.format).toBe("tagloom-hmm");
     expect(json.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
     expect(json.tags).toContain("B-PER");
-    expect(json.vocabulary.words).toContain("Paris");
+    expect(json.vocabulary.words).toContain("Velmora");
     expect(json.parameters.kind).toBe("sufficient-statistics");
     expect(json.config.order).toBe(1);
     expect(json.config.rare).toBe(0);

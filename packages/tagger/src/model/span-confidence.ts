@@ -76,7 +76,7 @@ function statesOf(model: TaggerModel, type: string): { begin: number; inside: nu
  * the constrained sum of Culotta & McCallum (2004) split at the chunk's edges; each factor is
  * divided by its ĉ_t as it is multiplied in, so nothing underflows.
  *
- * @param start, steps, emissions, end probabilities of the lattice (as given to the kernel).
+ * @param start, steps, stepIndex, emissions, end the lattice as given to the kernel (probabilities).
  */
 export function chunkConfidencesScaled(
   model: TaggerModel,
@@ -84,6 +84,7 @@ export function chunkConfidencesScaled(
   T: number,
   start: Float64Array,
   steps: Float64Array,
+  stepIndex: Int32Array,
   emissions: Float64Array,
   end: Float64Array | null,
   lattice: { alpha: Float64Array; beta: Float64Array; scale: Float64Array },
@@ -105,19 +106,19 @@ export function chunkConfidencesScaled(
     if (a === 0) v = start[begin] * emissions[begin];
     else {
       v = 0;
-      const m = a * KK + begin;
+      const m = stepIndex[a] * KK + begin;
       for (let i = 0, p = (a - 1) * K; i < K; i++, p++) v += alpha[p] * steps[m + i * K];
       v *= emissions[a * K + begin];
     }
     v /= scale[a];
     let last = begin;
     for (let t = a + 1; t < b; t++) {
-      v *= (steps[t * KK + last * K + inside] * emissions[t * K + inside]) / scale[t];
+      v *= (steps[stepIndex[t] * KK + last * K + inside] * emissions[t * K + inside]) / scale[t];
       last = inside;
     }
     if (b < T) {
       let tail = 0;
-      const m = b * KK + last * K;
+      const m = stepIndex[b] * KK + last * K;
       for (let k = 0; k < K; k++) if (k !== inside) tail += steps[m + k] * emissions[b * K + k] * beta[b * K + k];
       v *= tail / scale[b];
     } else {

@@ -12,7 +12,7 @@ describe("trainTagger / tagSentence", () => {
     const { model } = trainTagger(tinyDocuments);
     expect(model.scheme).toBe("iob");
     expect(model.tags.slice(0, 4)).toEqual(["B-PER", "I-PER", "O", "B-LOC"]);
-    const result = tagSentence(model, ["John", "Smith", "lives", "in", "Paris", "."]);
+    const result = tagSentence(model, ["Taven", "Orrick", "lives", "in", "Velmora", "."]);
     expect(result.tags).toEqual(["B-PER", "I-PER", "O", "O", "B-LOC", "O"]);
     expect(result.chunks.map((c) => [c.type, c.start, c.end])).toEqual([
       ["PER", 0, 2],
@@ -24,7 +24,7 @@ describe("trainTagger / tagSentence", () => {
 
   it("never outputs invalid IOB2 with the default constraints, even for unseen words", () => {
     const { model } = trainTagger(tinyDocuments);
-    for (const words of [["Zork", "Quux", "visited", "Blorp", "City"], ["in", "Xyzzy", "Corp"], ["Foo"]]) {
+    for (const words of [["Zorvik", "Quux", "visited", "Blorp", "City"], ["in", "Xyzzy", "Corp"], ["Foo"]]) {
       const { tags } = tagSentence(model, words);
       tags.forEach((tag, t) => {
         if (!tag.startsWith("I-")) return;
@@ -39,7 +39,7 @@ describe("trainTagger / tagSentence", () => {
     ["per-step (previous word, context emissions)", { prevWord: true, contextEmissions: true, calibration: "none" as const }, 4],
   ])("chunk confidence equals the brute-force probability that exactly that chunk is present (%s)", (_name, config, matrices) => {
     const { model } = trainTagger(tinyDocuments, config);
-    const words = ["Mary", "lives", "in", "Rome"];
+    const words = ["Ilsa", "lives", "in", "Zerith"];
     const result = tagSentence(model, words);
     const { params, input } = buildFirstOrderProblem(model, words, 0);
     expect(transitionMatrixCount(params)).toBe(matrices);
@@ -72,7 +72,7 @@ describe("trainTagger / tagSentence", () => {
     const tagged = tagSentence(model, ["the", "cat", "runs"]);
     expect(tagged.tags).toEqual(["DT", "NN", "VBZ"]);
     expect(tagged.chunks).toEqual([]);
-    const iob1 = [{ sentences: [{ words: ["John", "Smith", "ran"], tags: ["I-PER", "I-PER", "O"] }] }];
+    const iob1 = [{ sentences: [{ words: ["Taven", "Orrick", "ran"], tags: ["I-PER", "I-PER", "O"] }] }];
     expect(trainTagger(iob1).model.tags).toEqual(["B-PER", "I-PER", "O"]);
   });
 
@@ -80,7 +80,7 @@ describe("trainTagger / tagSentence", () => {
     const variants = [{}, { order: 2 as const }, { positionBuckets: { token: [1, 3], sentence: [1] } }, { contextEmissions: false, prevWord: false }, { wordClasses: "bikel" as const }];
     for (const config of variants) {
       const { model } = trainTagger(tinyDocuments, config);
-      const words = ["Lisa", "works", "for", "Acme", "Corp", "in", "Rome", "."];
+      const words = ["Nessa", "works", "for", "Quorvel", "Corp", "in", "Zerith", "."];
       const { posteriors } = sentencePosteriors(model, words, 1);
       const K = model.tags.length;
       for (let t = 0; t < words.length; t++) {
@@ -99,7 +99,7 @@ describe("trainTagger / tagSentence", () => {
 
   it("tags whole documents with sentence indices and handles empty sentences", () => {
     const { model } = trainTagger(tinyDocuments, { positionBuckets: { token: [], sentence: [1] } });
-    const tags = tagDocument(model, [["Paris", "."], [], ["John", "moved", "."]]);
+    const tags = tagDocument(model, [["Velmora", "."], [], ["Taven", "moved", "."]]);
     expect(tags.map((s) => s.length)).toEqual([2, 0, 3]);
     expect(tagSentence(model, [])).toEqual({ tags: [], chunks: [], logLikelihood: 0 });
   });

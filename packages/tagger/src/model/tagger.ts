@@ -7,7 +7,8 @@ import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/s
 import { chunkConfidences, chunkConfidencesScaled } from "./span-confidence";
 import { buildSentenceLattice, fastLatticeApplies, type SentenceLattice } from "./sentence-lattice";
 import { computeScaledForwardBackward } from "../kernels/forward-backward-scaled";
-import { decodeViterbi } from "../kernels/viterbi";
+import { decodeViterbiJs } from "../kernels/viterbi";
+import { checkShapes } from "../kernels/hmm-params";
 import { assembleModel, type TaggerModel } from "./tagger-model";
 import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
@@ -133,13 +134,17 @@ function calibrated(model: TaggerModel, confidences: number[]): number[] {
   return confidences;
 }
 
-/** Viterbi over a cached sentence lattice (the same kernel and scores as decodeSentence). */
+/**
+ * Viterbi over a cached sentence lattice: the same scores and recursion as decodeSentence, on the
+ * JavaScript kernel (the WebAssembly one would copy the cache's whole matrix array per sentence).
+ */
 function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
   const K = model.tags.length;
   const T = lattice.length;
-  const params = { states: K, start: lattice.logStart, transitions: lattice.logSteps.subarray(0, Math.max(T, 1) * K * K), end: model.parameters.end };
+  const params = { states: K, start: lattice.logStart, transitions: T > 1 ? lattice.logSteps : model.parameters.transitions.subarray(0, K * K), end: model.parameters.end };
   const input = { length: T, scores: lattice.logEmissions.subarray(0, T * K), rows: null, transitionIndex: T > 1 ? lattice.stepIndex : null };
-  return decodeViterbi(params, input).path;
+  checkShapes(params, input, "decodeLattice");
+  return decodeViterbiJs(params, input, new Int32Array(T)).path;
 }
 
 /**
@@ -151,14 +156,14 @@ function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSe
   const K = model.tags.length;
   const lattice = buildSentenceLattice(model, words);
   const T = lattice.length;
-  const logLikelihood = computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled);
+  const logLikelihood = computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled);
   if (Number.isNaN(logLikelihood)) return null;
   const path = decodeLattice(model, lattice);
   const tags = new Array<string>(T);
   for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
   if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
   const chunks = tagsToChunks(tags);
-  const confidences = calibrated(model, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.emissions, lattice.end, lattice.scaled));
+  const confidences = calibrated(model, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
   return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
 }
 

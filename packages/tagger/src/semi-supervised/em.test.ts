@@ -4,7 +4,13 @@ import { createRng } from "../util/random";
 import { eisnerDays, iceCream, iceCreamSymbols, randomHmm } from "../testing/hmm-fixtures";
 
 describe("trainBaumWelch", () => {
-  it("REFERENCES.md example 5: J&M ice-cream start, Eisner's 33 days, ln P = −36.576833, −36.024491, −35.808835, −35.438321, −34.843461", () => {
+  it("J&M ice-cream start, Eisner's 33 days: ln P = −36.576833, −36.024491, −35.808835, −35.438321, −34.843461 (as NLTK's Baum–Welch gives them)", () => {
+    // Start: Jurafsky & Martin, Speech and Language Processing, 3rd ed. draft, Appendix A, the
+    // ice-cream HMM; data: the 33 days of Eisner (2002), "An Interactive Spreadsheet for Teaching
+    // the Forward-Backward Algorithm". Neither source prints these log-likelihoods: they are what
+    // NLTK 3.8's HiddenMarkovModelTrainer.train_unsupervised gives on the same start and data
+    // (start distribution re-estimated too); test/nltk-baum-welch.test.ts compares the two live,
+    // with every re-estimated parameter.
     const { params, emissionTable } = iceCream;
     const { history } = trainBaumWelch(params, emissionTable, [iceCreamSymbols(eisnerDays)], { iterations: 5 });
     expect(history.map((x) => Number(x.toFixed(6)))).toEqual([-36.576833, -36.024491, -35.808835, -35.438321, -34.843461]);

@@ -1,22 +1,22 @@
-/** A small hand-written labelled corpus for unit tests of the high-level tagger (used only by tests). */
+/** A small hand-written labelled corpus for unit tests of the high-level tagger (used only by tests). Every name in it is invented. */
 import type { ColumnDocument } from "../text/conll";
 
 const raw = [
   [
-    "John Smith lives in Paris .|B-PER I-PER O O B-LOC O",
-    "He works for Acme Corp in London .|O O O B-ORG I-ORG O B-LOC O",
-    "Mary visited Berlin in 1990 .|B-PER O B-LOC O O O",
+    "Taven Orrick lives in Velmora .|B-PER I-PER O O B-LOC O",
+    "He works for Quorvel Corp in Drussel .|O O O B-ORG I-ORG O B-LOC O",
+    "Ilsa visited Kestrane in 1990 .|B-PER O B-LOC O O O",
   ],
   [
-    "The Beatles played in Liverpool .|O B-ORG O O B-LOC O",
-    "Paul McCartney met John Lennon .|B-PER I-PER O B-PER I-PER O",
-    "They recorded Abbey Road in London .|O O B-MISC I-MISC O B-LOC O",
+    "The Marrowicks played in Ostravel .|O B-ORG O O B-LOC O",
+    "Pell Vantorro met Taven Quillory .|B-PER I-PER O B-PER I-PER O",
+    "They recorded Glass Lantern in Drussel .|O O B-MISC I-MISC O B-LOC O",
   ],
   [
-    "Acme Corp hired Mary .|B-ORG I-ORG O B-PER O",
-    "Paris is in France .|B-LOC O O B-LOC O",
-    "The French team won the Cup .|O B-MISC O O O B-MISC O",
-    "John moved to Berlin .|B-PER O O B-LOC O",
+    "Quorvel Corp hired Ilsa .|B-ORG I-ORG O B-PER O",
+    "Velmora is in Vellund .|B-LOC O O B-LOC O",
+    "The Vellundic team won the Cup .|O B-MISC O O O B-MISC O",
+    "Taven moved to Kestrane .|B-PER O O B-LOC O",
   ],
 ];
 
@@ -30,8 +30,8 @@ export const tinyDocuments: ColumnDocument[] = raw.map((doc) => ({
 /** Unlabelled sentences in the same style. */
 export const tinyUnlabelled: string[][][] = [
   [
-    "Lisa Brown lives in Madrid .".split(" "),
-    "She works for Globex in Rome .".split(" "),
+    "Nessa Arvell lives in Tirranel .".split(" "),
+    "She works for Plumbrix in Zerith .".split(" "),
   ],
-  ["George Harrison played in Hamburg .".split(" "), "The team visited London in 1991 .".split(" ")],
+  ["Oren Vasquill played in Dravenholt .".split(" "), "The team visited Drussel in 1991 .".split(" ")],
 ];

@@ -20,8 +20,9 @@ describe("tagsToChunks (CoNLL conlleval convention)", () => {
   });
 
   it("reads IOB1 the same way: I-X after O or another type opens a chunk, B-X splits two of a type", () => {
-    // Convention as stated for conlleval (CoNLL-2000 shared task evaluation script, 2004 version),
-    // summarised in REFERENCES.md "Scoring: the CoNLL convention".
+    // conlleval's chunk rules (the CoNLL-2000 shared task's evaluation script, 2004 version; its
+    // startOfChunk/endOfChunk, from memory): a chunk starts at B-X, at I-X after O and at a type
+    // change, and ends before B, O or a type change. Worked by hand.
     expect(tagsToChunks(["I-PER", "I-PER", "B-PER", "O", "I-LOC", "I-ORG"])).toEqual([
       { type: "PER", start: 0, end: 2 },
       { type: "PER", start: 2, end: 3 },
@@ -40,9 +41,10 @@ describe("tagsToChunks (CoNLL conlleval convention)", () => {
     expect(tagsToChunks(["O", "O"])).toEqual([]);
   });
 
-  it("finds 8 gold and 8 predicted chunks in REFERENCES.md check 3", () => {
-    // Check 3 of REFERENCES.md ("edge cases", computed with the conlleval script): 8 gold phrases
-    // and 8 found phrases over the six sentences below.
+  it("finds 8 gold and 8 predicted chunks in six edge-case sentences, as conlleval does", () => {
+    // conlleval (CoNLL-2000 shared task evaluation script, 2004 version) reports 8 gold phrases
+    // and 8 found phrases over the six sentences below; by hand: gold PER LOC | ORG | PER PER |
+    // MISC | LOC | PER, predicted PER LOC | ORG LOC | PER | MISC | PER | PER.
     const gold = [["B-PER", "I-PER", "O", "B-LOC"], ["B-ORG", "I-ORG", "I-ORG", "O"], ["B-PER", "B-PER", "O"], ["O", "B-MISC", "I-MISC"], ["B-LOC", "O", "O"], ["I-PER"]];
     const predicted = [["B-PER", "I-PER", "O", "I-LOC"], ["B-ORG", "I-ORG", "I-LOC", "O"], ["B-PER", "I-PER", "O"], ["O", "B-MISC", "I-MISC"], ["O", "O", "B-PER"], ["B-PER"]];
     expect(gold.reduce((n, s) => n + tagsToChunks(s).length, 0)).toBe(8);
@@ -103,7 +105,7 @@ describe("chunksToTags and toIob2", () => {
 });
 
 describe("spansToTags and tagsToSpans", () => {
-  const text = "Ada Lovelace met Charles Babbage in London.";
+  const text = "Ona Veldrace met Caddric Vobbane in Varnok.";
   const { tokens } = tokenizeText(text);
 
   it("tags tokens inside spans and reads the spans back", () => {

@@ -16,25 +16,25 @@ function errorOf(run: () => unknown): ColumnFormatError {
 // Expected documents and line numbers below are worked by hand from the inputs.
 describe("parseColumnText", () => {
   it("reads a CoNLL-2003-style file with -DOCSTART-, four columns and IOB1 tags", () => {
-    // Made-up lines in the layout of the CoNLL-2003 shared task files (Tjong Kim Sang & De Meulder 2003, "Introduction to
+    // Made-up lines (invented names) in the layout of the CoNLL-2003 shared task files (Tjong Kim Sang & De Meulder 2003, "Introduction to
     // the CoNLL-2003 Shared Task: Language-Independent Named Entity Recognition", §2, data format):
     // word, POS, chunk and NE tag; IOB1 NE tags, so I-X opens an
     // entity unless two of a type touch.
     const text = [
       "-DOCSTART- -X- -X- O",
       "",
-      "EU NNP B-NP I-ORG",
+      "Quorvel NNP B-NP I-ORG",
       "rejects VBZ B-VP O",
-      "German JJ B-NP I-MISC",
+      "Ostravic JJ B-NP I-MISC",
       "call NN I-NP O",
       ". . O O",
       "",
-      "Peter NNP B-NP I-PER",
-      "Blackburn NNP I-NP I-PER",
+      "Pell NNP B-NP I-PER",
+      "Vantorro NNP I-NP I-PER",
       "",
       "-DOCSTART- -X- -X- O",
       "",
-      "BRUSSELS NNP B-NP I-LOC",
+      "KESTRANE NNP B-NP I-LOC",
       "",
     ].join("\n");
     const { documents, scheme } = parseColumnText(text);
@@ -42,11 +42,11 @@ describe("parseColumnText", () => {
     expect(documents).toEqual([
       {
         sentences: [
-          { words: ["EU", "rejects", "German", "call", "."], tags: ["I-ORG", "O", "I-MISC", "O", "O"] },
-          { words: ["Peter", "Blackburn"], tags: ["I-PER", "I-PER"] },
+          { words: ["Quorvel", "rejects", "Ostravic", "call", "."], tags: ["I-ORG", "O", "I-MISC", "O", "O"] },
+          { words: ["Pell", "Vantorro"], tags: ["I-PER", "I-PER"] },
         ],
       },
-      { sentences: [{ words: ["BRUSSELS"], tags: ["I-LOC"] }] },
+      { sentences: [{ words: ["KESTRANE"], tags: ["I-LOC"] }] },
     ]);
     expect(toIob2(documents[0].sentences[0].tags)).toEqual(["B-ORG", "O", "B-MISC", "O", "O"]);
   });
@@ -108,8 +108,8 @@ describe("parseColumnText", () => {
 
 describe("formatTaggedSentences", () => {
   it("writes token<TAB>tag lines and a blank line after each sentence", () => {
-    expect(formatTaggedSentences([{ words: ["EU", "rejects"], tags: ["B-ORG", "O"] }, { words: [], tags: [] }, { words: ["Hi"], tags: ["O"] }])).toBe(
-      "EU\tB-ORG\nrejects\tO\n\nHi\tO\n\n",
+    expect(formatTaggedSentences([{ words: ["Quorvel", "rejects"], tags: ["B-ORG", "O"] }, { words: [], tags: [] }, { words: ["Hi"], tags: ["O"] }])).toBe(
+      "Quorvel\tB-ORG\nrejects\tO\n\nHi\tO\n\n",
     );
   });
 

