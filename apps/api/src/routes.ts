@@ -15,6 +15,7 @@ import { invitationLinkRouter, invitationsRouter } from "@/invitations/invitatio
 import { membersRouter } from "@/members/members.routes";
 import { orgScope } from "@/orgs/org-access";
 import { orgRouter, orgsRouter } from "@/orgs/orgs.routes";
+import { trainingRouter } from "@/training/training.routes";
 import { uploadsRouter } from "@/uploads/uploads.routes";
 
 /**
@@ -41,6 +42,7 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler }): Router
   org.use(batchesRouter);
   org.use(assignmentsRouter);
   org.use(reviewRouter);
+  org.use(trainingRouter);
   org.use(orgRouter);
   api.use("/orgs/:orgId", requireSession, orgScope, org);
   return api;

@@ -34,3 +34,16 @@ export { logSumExp, logAddExp } from "./math";
 export { countSupervised, type EncodedCorpus } from "./train";
 export { addStatistics, type SufficientStatistics } from "./sufficient-statistics";
 export { wordClassNames, wordClassOf, type WordClassScheme } from "./word-features";
+export {
+  countShardWords,
+  planShards,
+  countShard,
+  sumShardStatistics,
+  trainFromShards,
+  statisticsToJson,
+  statisticsFromJson,
+  type ShardWordCounts,
+  type ShardPlan,
+  type ShardCounts,
+  type SerializedStatistics,
+} from "./shard-training";

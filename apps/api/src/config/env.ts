@@ -33,6 +33,12 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(100 * 1024 * 1024),
   UPLOAD_MAX_DOCUMENT_CHARS: z.coerce.number().int().min(1).default(500_000),
+  /** Seconds after which a training job whose worker died (or hung) is retried by another worker. */
+  TRAINING_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  /** Training tokens per shard: a run's documents are counted in slices of about this size. */
+  TRAINING_SHARD_TOKENS: z.coerce.number().int().min(1).default(50_000),
+  /** How often a worker's pg-boss looks for expired jobs and does its housekeeping (seconds). */
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

@@ -2,4 +2,5 @@
 // creates its objects. Keep this list in the order features were added.
 import "./fixtures/annotation";
 import "./fixtures/corpora";
+import "./fixtures/training";
 export {};
