@@ -21,7 +21,7 @@ beforeAll(async () => {
   server = await startTestServer();
   const founder = await signUpFounder(server, { organizationName: "Training Org" });
   lead = await addSignedInMember(server, founder.orgId, "data_lead");
-  ({ corpusId } = await createTrainingCorpus(founder.orgId, { userId: founder.userId, email: founder.email }, "Supply memos", generateDocuments(40, 6, 11)));
+  ({ corpusId } = await createTrainingCorpus(founder.orgId, { userId: founder.userId, email: founder.email }, "Supply memos", generateDocuments(40, 6, 11), generateDocuments(30, 6, 99)));
   await startTestWorkers();
 }, 60_000);
 
@@ -147,6 +147,38 @@ describe("a training run with the defaults", () => {
   it("the audit log has the start, repeat and download", async () => {
     const actions = (await db("audit_events").where({ organization_id: lead.orgId }).select("action")).map((r) => r.action);
     expect(actions).toEqual(expect.arrayContaining(["training_run.started", "training_run.repeated", "tagger.downloaded"]));
+    expect(await db("audit_events").where({ organization_id: lead.orgId, action: "tagger.downloaded" }).whereNotNull("target_id").count<{ n: number }[]>({ n: "*" })).not.toEqual([{ n: 0 }]);
+  });
+});
+
+describe("learning from unlabelled documents", () => {
+  it("EM and sampling store each pass's log-likelihood and cost; sampling holds fewer bytes of statistics", async () => {
+    const em = await trainedRun({ crossValidationFolds: null, semi: "em", iterations: 3 });
+    const sample = await trainedRun({ crossValidationFolds: null, semi: "sample", iterations: 3 });
+    expect(em.documentCounts.unlabelled).toBe(30);
+    for (const run of [em, sample]) {
+      expect(run.iterations.map((i) => i.iteration)).toEqual([1, 2, 3]);
+      expect(run.evaluation!.semiSupervised!.iterations).toEqual(run.iterations);
+      for (const i of run.iterations) expect(Number.isFinite(i.logLikelihood) && i.logLikelihood < 0).toBe(true);
+    }
+    expect(sample.iterations[0]!.statisticsBytes).toBeLessThan(em.iterations[0]!.statisticsBytes);
+  });
+
+  it("a running run stops at the next pass when cancelled, and stores no tagger", async () => {
+    const res = await lead.agent.post(`${base()}/runs`).send({ crossValidationFolds: null, semi: "em", iterations: 50 });
+    expect(res.status).toBe(202);
+    const until = Date.now() + 60_000;
+    let run = res.body as TrainingRun;
+    while (run.iterations.length === 0 && Date.now() < until) {
+      await new Promise((r) => setTimeout(r, 50));
+      run = (await lead.agent.get(`${base()}/runs/${run.id}`)).body;
+    }
+    expect([run.status, run.stage]).toEqual(["running", "unlabelled"]);
+    const cancel = await lead.agent.post(`${base()}/runs/${run.id}/cancel`).send({});
+    expect([cancel.status, cancel.body.cancelRequested]).toEqual([200, true]);
+    const done = await waitForRun(run.id);
+    expect([done.status, done.taggerId]).toEqual(["cancelled", null]);
+    expect(done.iterations.length).toBeLessThan(50);
   });
 });
 
@@ -198,7 +230,7 @@ describe("comparing two taggers", () => {
       expect(doc.body.entityTypes.map((t: { name: string }) => t.name).sort()).toEqual(["ORG", "PERSON", "PLACE", "PRODUCT"]);
     }
     const list = await lead.agent.get(`${base()}/taggers?limit=2`);
-    expect(list.body.items.map((t: { version: number }) => t.version)).toEqual([5, 4]);
+    expect(list.body.items.map((t: { version: number }) => t.version)).toEqual([7, 6]);
     const cancel = await lead.agent.post(`${base()}/runs/${defaultRun.id}/cancel`).send({});
     expect([cancel.status, cancel.body.error.code]).toEqual([409, "run_finished"]);
   });
