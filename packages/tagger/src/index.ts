@@ -39,6 +39,7 @@ export {
   planShards,
   countShard,
   sumShardStatistics,
+  mergeShardCounts,
   trainFromShards,
   statisticsToJson,
   statisticsFromJson,

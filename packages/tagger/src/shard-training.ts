@@ -172,6 +172,31 @@ export function sumShardStatistics(shards: readonly ShardCounts[]): SufficientSt
 }
 
 /**
+ * Two shards' counts as one (a before b in shard order), so that a caller can fold shards in one
+ * at a time instead of holding them all: folding in order gives trainFromShards the same input
+ * as the whole list, and the same model.
+ */
+export function mergeShardCounts(a: ShardCounts, b: ShardCounts): ShardCounts {
+  const suffixes = new Map<string, [number, string, number, number]>();
+  for (const list of [a.suffixes, b.suffixes]) {
+    for (const [group, word, tag, count] of list) {
+      const key = `${group}\u0000${tag}\u0000${word}`;
+      const entry = suffixes.get(key);
+      if (entry) entry[3] += count;
+      else suffixes.set(key, [group, word, tag, count]);
+    }
+  }
+  return {
+    statistics: statisticsToJson(addStatistics(statisticsFromJson(a.statistics), statisticsFromJson(b.statistics))),
+    suffixes: [...suffixes.values()],
+    tagCounts: a.tagCounts.map((n, k) => n + b.tagCounts[k]),
+    documents: a.documents + b.documents,
+    sentences: a.sentences + b.sentences,
+    tokens: a.tokens + b.tokens,
+  };
+}
+
+/**
  * Estimates the model from shards counted with `plan` (smoothing and the suffix model), as
  * trainTagger would from the concatenated documents. Returns the summed statistics too, for
  * refineWithUnlabelled.

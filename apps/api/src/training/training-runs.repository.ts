@@ -219,12 +219,6 @@ export async function countFinishedShards(organizationId: string, runId: string,
   return { finished: r?.finished ?? 0, total: r?.total ?? 0 };
 }
 
-/** Every shard's counts in shard order (null for a shard not counted yet). */
-export async function listShardCounts(organizationId: string, runId: string, db: Db = defaultDb): Promise<(string | null)[]> {
-  const rows = await db("training_run_shards").where({ organization_id: organizationId, run_id: runId }).orderBy("shard").select("statistics");
-  return rows.map((r) => (r.statistics ? (r.statistics as Buffer).toString("utf8") : null));
-}
-
 /** A candidate document of a new run: gold or not, split, gold version, tokens. */
 export type CorpusDocumentForRun = { id: string; split: "train" | "test" | null; gold: boolean; goldVersion: number | null; tokens: number };
 
@@ -310,4 +304,10 @@ export async function listRunTestDocumentIds(organizationId: string, runId: stri
 export async function listShardSizes(organizationId: string, runId: string, db: Db = defaultDb): Promise<number[]> {
   const rows = await db("training_run_shards").where({ organization_id: organizationId, run_id: runId }).orderBy("shard").select("document_count");
   return rows.map((r) => r.document_count as number);
+}
+
+/** One shard's counts (null until counted). */
+export async function findShardCounts(organizationId: string, runId: string, shard: number, db: Db = defaultDb): Promise<string | null> {
+  const r = await db("training_run_shards").where({ organization_id: organizationId, run_id: runId, shard }).first("statistics");
+  return r?.statistics ? (r.statistics as Buffer).toString("utf8") : null;
 }

@@ -11,6 +11,7 @@ import {
   crossValidate,
   evaluateModel,
   learningCurvePlan,
+  mergeShardCounts,
   planShards,
   refineWithUnlabelled,
   serializeModel,
@@ -35,7 +36,7 @@ import {
   findRun,
   findRunPlan,
   listShardSizes,
-  listShardCounts,
+  findShardCounts,
   lockRun,
   storeShardCounts,
   streamRunDocuments,
@@ -148,10 +149,16 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
   }
   const config = engineConfigOf(run.config, run.seed);
   const plan = JSON.parse((await findRunPlan(organizationId, runId))!) as ShardPlan;
-  const stored = await listShardCounts(organizationId, runId);
-  if (stored.some((s) => s === null)) throw new Error(`run ${runId}: a shard has no counts`);
   await enterStage(run, "smoothing", 0.45);
-  const { model: supervised, statistics } = trainFromShards(plan, stored.map((s) => JSON.parse(s!) as ShardCounts), config);
+  // Shards folded in one at a time, in shard order: memory holds two shards' counts, not all.
+  let summed: ShardCounts | null = null;
+  for (let shard = 0; shard < run.shardCount; shard++) {
+    const text = await findShardCounts(organizationId, runId, shard);
+    if (text === null) throw new Error(`run ${runId}: shard ${shard} has no counts`);
+    const counts = JSON.parse(text) as ShardCounts;
+    summed = summed === null ? counts : mergeShardCounts(summed, counts);
+  }
+  const { model: supervised, statistics } = trainFromShards(plan, [summed!], config);
   let model = supervised;
 
   const iterations: RunIteration[] = [];
