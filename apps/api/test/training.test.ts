@@ -71,6 +71,8 @@ describe("a training run with the defaults", () => {
     expect(defaultRun.config.crossValidationFolds).toBe(5);
     expect(defaultRun.documentCounts).toEqual({ train: 30, test: 10, unlabelled: 0 });
     expect(defaultRun.taggerId).not.toBeNull();
+    const log = (await db("training_runs").where({ id: defaultRun.id }).first("log")).log as { stage: string }[];
+    expect(log.map((l) => l.stage)).toEqual(["loading", "counting", "smoothing", "cross_validation", "evaluation", "storing"]);
     const e = defaultRun.evaluation!;
 
     // Outside check: the CLI of packages/tagger trains on the exported CoNLL of the training split

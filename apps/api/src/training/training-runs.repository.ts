@@ -147,6 +147,8 @@ export async function updateRun(
     started: boolean;
     finished: boolean;
     plan: string | null;
+    /** Appends { stage, at } to the run's stage log. */
+    logStage: RunStage;
   }>,
   db: Db = defaultDb,
 ): Promise<void> {
@@ -160,6 +162,7 @@ export async function updateRun(
   if (changes.started) row.started_at = db.raw("coalesce(started_at, now())");
   if (changes.finished) row.finished_at = db.fn.now();
   if (changes.plan !== undefined) row.plan = changes.plan;
+  if (changes.logStage !== undefined) row.log = db.raw("log || ?::jsonb", [JSON.stringify([{ stage: changes.logStage, at: new Date().toISOString() }])]);
   await db("training_runs").where({ organization_id: organizationId, id: runId }).update(row);
 }
 

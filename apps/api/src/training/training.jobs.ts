@@ -65,7 +65,7 @@ async function checkRun(organizationId: string, runId: string): Promise<RunRow> 
 }
 
 async function enterStage(run: RunRow, stage: RunStage, progress: number): Promise<void> {
-  await updateRun(run.organizationId, run.id, { status: "running", stage, progress, started: true });
+  await updateRun(run.organizationId, run.id, { status: "running", stage, progress, started: true, logStage: stage });
 }
 
 async function typeNamesOf(run: RunRow): Promise<Map<string, string>> {
@@ -114,7 +114,7 @@ async function loadRun(organizationId: string, runId: string): Promise<void> {
   const plan = planShards(parts, engineConfigOf(run.config, run.seed));
   await checkRun(organizationId, runId);
   await clearShardCounts(organizationId, runId);
-  await updateRun(organizationId, runId, { plan: JSON.stringify(plan), stage: "counting", progress: 0.15 });
+  await updateRun(organizationId, runId, { plan: JSON.stringify(plan), stage: "counting", progress: 0.15, logStage: "counting" });
   for (let shard = 0; shard < sizes.length; shard++) await enqueueTrainingJob(TRAINING_SHARD_QUEUE, { organizationId, runId, shard });
 }
 
