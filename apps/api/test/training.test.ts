@@ -223,7 +223,8 @@ describe("comparing two taggers", () => {
     expect(c.bootstrap.delta).toBeCloseTo(c.overall.f1Difference, 12);
     expect(c.bootstrap.ci[0]).toBeLessThanOrEqual(c.bootstrap.ci[1]);
     expect(c.types.map((t: { type: string }) => t.type)).toEqual(["ORG", "PERSON", "PLACE", "PRODUCT"]);
-    if (c.disagreements.length > 0) {
+    expect(c.disagreements.length).toBeGreaterThan(0);
+    {
       const d = c.disagreements[0];
       const doc = await lead.agent.get(`${base()}/taggers/${defaultRun.taggerId}/compare/${other.taggerId}/documents/${d.documentId}`);
       expect(doc.status).toBe(200);

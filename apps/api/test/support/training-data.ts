@@ -19,8 +19,27 @@ const TEMPLATES = [
   "Payment terms were agreed between {ORG} and {PERSON} .",
   "Shipments of {PRODUCT} leave {PLACE} every week .",
   "The board thanked everyone for the quiet quarter .",
+  // Slots whose type the context does not tell: the tagger has to go by the name itself.
+  "A letter came from {ANY} on Friday .",
+  "Everyone asked about {ANY} again .",
 ];
 const POOLS: Record<string, string[]> = { PERSON: PEOPLE, ORG: ORGS, PLACE: PLACES, PRODUCT: PRODUCTS };
+const SYLLABLES = ["dra", "ven", "ko", "lis", "mar", "tho", "qu", "ell", "ber", "sa", "nor", "wyn"];
+const SUFFIXES: Record<string, string[]> = { PERSON: [""], ORG: [" Ltd", " Works", " Trust"], PLACE: ["", "ford", "mere"], PRODUCT: ["", " Mk3"] };
+function inventName(type: string, k: number): string {
+  const word = (n: number) => {
+    let w = "";
+    for (let i = 0; i < 2 + (n % 2); i++) {
+      w += SYLLABLES[n % SYLLABLES.length];
+      n = Math.floor(n / SYLLABLES.length);
+    }
+    return w.charAt(0).toUpperCase() + w.slice(1);
+  };
+  const suffixes = SUFFIXES[type]!;
+  const base = type === "PERSON" ? `${word(k)} ${word(k >> 7)}` : word(k);
+  return base + suffixes[k % suffixes.length]!;
+}
+
 export const TRAINING_TYPES = ["PERSON", "ORG", "PLACE", "PRODUCT"] as const;
 
 export type GeneratedDocument = { title: string; text: string; spans: { start: number; end: number; type: string }[]; split: "train" | "test" | null };
@@ -39,8 +58,11 @@ export function generateDocuments(count: number, sentences: number, seed: number
       for (const part of parts) {
         const m = /^\{([A-Z]+)\}$/.exec(part);
         if (m) {
-          const name = pick(POOLS[m[1]!]!);
-          spans.push({ start: text.length, end: text.length + name.length, type: m[1]! });
+          const type = m[1] === "ANY" ? TRAINING_TYPES[rng.nextInt(TRAINING_TYPES.length)]! : m[1]!;
+          // A third of the names are made up on the spot from syllables, so the test split holds
+          // names never seen in training and the tagger must go by word shape and suffixes.
+          const name = rng.nextInt(3) === 0 ? inventName(type, rng.nextInt(1 << 20)) : pick(POOLS[type]!);
+          spans.push({ start: text.length, end: text.length + name.length, type });
           text += name;
         } else text += part;
       }
