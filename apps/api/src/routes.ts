@@ -20,6 +20,7 @@ import { membersRouter } from "@/members/members.routes";
 import { orgScope } from "@/orgs/org-access";
 import { orgRouter, orgsRouter } from "@/orgs/orgs.routes";
 import type { TaggingRateLimit } from "@/tagging/tagging-rate-limit";
+import { trainingRouter } from "@/training/training.routes";
 import { uploadsRouter } from "@/uploads/uploads.routes";
 
 /**
@@ -51,6 +52,7 @@ export function buildApiRoutes(options: { authLimiter: RequestHandler; taggingRa
   org.use(reviewRouter);
   org.use(apiTokensRouter);
   org.use(suggestionsRouter);
+  org.use(trainingRouter);
   org.use(orgRouter);
   api.use("/orgs/:orgId", requireSession, orgScope, org);
   return api;

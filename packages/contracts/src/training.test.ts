@@ -35,6 +35,12 @@ describe("startRunInputSchema", () => {
     );
   });
 
+  it("refuses EM or sampling with a second-order model", () => {
+    const r = startRunInputSchema.safeParse({ order: 2, semi: "em" });
+    expect(r.error?.issues.map((i) => i.path.join("."))).toEqual(["semi"]);
+    expect(startRunInputSchema.safeParse({ order: 2, semi: "none" }).success).toBe(true);
+  });
+
   it("accepts a full form", () => {
     const input = {
       smoothing: { start: 1, transition: 0.5, emission: 0.1 },
@@ -43,7 +49,7 @@ describe("startRunInputSchema", () => {
       rare: 2,
       wordClasses: "bikel",
       suffixLength: 3,
-      order: 2,
+      order: 1,
       prevWord: false,
       contextEmissions: false,
       crossValidationFolds: null,

@@ -71,6 +71,11 @@ export const trainingConfigInputSchema = z.strictObject({
   weight: z.number().finite("Enter a number.").min(0, "Use 0 or more.").max(10, "Use at most 10.").optional(),
   testSplit: testSplitSchema.optional(),
   seed: z.number().int("Use a whole number.").min(0, "Use 0 or more.").max(2_147_483_647, "Use at most 2147483647.").optional(),
+}).superRefine((v, ctx) => {
+  // The engine's EM and sampling are first-order only.
+  if (v.order === 2 && v.semi !== undefined && v.semi !== "none") {
+    ctx.addIssue({ code: "custom", path: ["semi"], message: "Learning from unlabelled documents needs model order 1." });
+  }
 });
 export type TrainingConfigInput = z.infer<typeof trainingConfigInputSchema>;
 
@@ -122,7 +127,7 @@ const spreadSchema = z.object({ mean: z.number(), std: z.number() });
 /** A tagger's scores on its run's test split (CoNLL convention, fractions in [0, 1]). */
 export const evaluationSchema = z.object({
   overall: prfSchema.extend({ correct: z.number().int(), predicted: z.number().int(), gold: z.number().int() }),
-  /** Per entity type, in the order of the corpus schema; support = gold entities of the type. */
+  /** Per entity type seen in gold or predicted, sorted by name (the engine's order); support = gold entities of the type. */
   types: z.array(prfSchema.extend({ type: z.string(), support: z.number().int(), correct: z.number().int(), predicted: z.number().int() })),
   tokenAccuracy: z.number(),
   tokens: z.number().int(),

@@ -35,3 +35,17 @@ export { logSumExp, logAddExp } from "./util/math";
 export { countSupervised, type EncodedCorpus } from "./estimation/train";
 export { addStatistics, type SufficientStatistics } from "./estimation/sufficient-statistics";
 export { wordClassNames, wordClassOf, type WordClassScheme } from "./estimation/word-features";
+export {
+  countShardWords,
+  planShards,
+  countShard,
+  sumShardStatistics,
+  mergeShardCounts,
+  trainFromShards,
+  statisticsToJson,
+  statisticsFromJson,
+  type ShardWordCounts,
+  type ShardPlan,
+  type ShardCounts,
+  type SerializedStatistics,
+} from "./estimation/shard-training";

@@ -47,6 +47,12 @@ const envSchema = z.object({
   /** Tagging API (/api/v1): requests allowed per token per window, and the window in seconds (per API process). */
   TAGGING_RATE_LIMIT: z.coerce.number().int().min(1).default(600),
   TAGGING_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(60),
+  /** Seconds after which a training job whose worker died (or hung) is retried by another worker. */
+  TRAINING_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  /** Training tokens per shard: a run's documents are counted in slices of about this size. */
+  TRAINING_SHARD_TOKENS: z.coerce.number().int().min(1).default(50_000),
+  /** How often a worker's pg-boss looks for expired jobs and does its housekeeping (seconds). */
+  JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });
 
 export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };

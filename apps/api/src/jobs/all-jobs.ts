@@ -2,3 +2,4 @@
 import "@/mail/mail.jobs";
 import "@/uploads/uploads.jobs";
 import "@/suggestions/suggestions.jobs";
+import "@/training/training.jobs";

@@ -21,7 +21,7 @@ export function getJobSender(): Promise<PgBoss> {
 
 /** A pg-boss instance that runs maintenance and cron schedules (worker processes). */
 export async function startWorkerBoss(): Promise<PgBoss> {
-  const boss = new PgBoss({ connectionString: env.DATABASE_URL, supervise: true, schedule: true, max: 6 });
+  const boss = new PgBoss({ connectionString: env.DATABASE_URL, supervise: true, schedule: true, max: 6, maintenanceIntervalSeconds: env.JOB_MAINTENANCE_SECONDS });
   boss.on("error", (err) => logger.error({ err }, "pg-boss worker error"));
   await boss.start();
   return boss;

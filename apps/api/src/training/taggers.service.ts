@@ -1,5 +1,6 @@
 import { createHash } from "node:crypto";
 import { type Evaluation, type Page, type Tagger, type TaggerListQuery, taggerLabel } from "@tagloom/contracts";
+import { type Actor, recordAudit } from "@/audit/audit.service";
 import { getCorpus } from "@/corpora/corpora.service";
 import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import { db as defaultDb } from "@/db/knex";
@@ -102,4 +103,34 @@ export async function insertTagger(
 
 function defaultDbTransaction<T>(db: Db, work: (trx: Db) => Promise<T>): Promise<T> {
   return (db as typeof defaultDb).transaction(work);
+}
+
+function fileSlug(label: string): string {
+  return label.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "tagger";
+}
+
+/** The model JSON for download (byte for byte as stored), recorded in the audit log. */
+export async function downloadTaggerModel(
+  organizationId: string,
+  corpusId: string,
+  taggerId: string,
+  actor: Actor,
+): Promise<{ filename: string; text: string }> {
+  const tagger = await getTagger(organizationId, corpusId, taggerId);
+  const text = await getTaggerModelText(organizationId, corpusId, taggerId);
+  await recordAudit(undefined, actor, organizationId, "tagger.downloaded", { type: "tagger", id: tagger.id, label: tagger.label }, { file: "model" });
+  return { filename: `${fileSlug(tagger.label)}.json`, text };
+}
+
+/** The tagger's evaluation as a JSON file, recorded in the audit log. */
+export async function downloadTaggerEvaluation(
+  organizationId: string,
+  corpusId: string,
+  taggerId: string,
+  actor: Actor,
+): Promise<{ filename: string; text: string }> {
+  const tagger = await getTagger(organizationId, corpusId, taggerId);
+  await recordAudit(undefined, actor, organizationId, "tagger.downloaded", { type: "tagger", id: tagger.id, label: tagger.label }, { file: "evaluation" });
+  const body = { tagger: { id: tagger.id, label: tagger.label, version: tagger.version, runId: tagger.runId, createdAt: tagger.createdAt }, evaluation: tagger.evaluation };
+  return { filename: `${fileSlug(tagger.label)}-evaluation.json`, text: `${JSON.stringify(body, null, 2)}\n` };
 }

@@ -3,4 +3,5 @@
 import "./fixtures/annotation";
 import "./fixtures/corpora";
 import "./fixtures/api-tokens";
+import "./fixtures/training";
 export {};

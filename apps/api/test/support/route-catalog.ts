@@ -114,6 +114,8 @@ export const routeCatalog: CatalogRoute[] = [
   ...corpusRoutes(),
   // API tokens, the suggester and the most-uncertain ranking (issue 10).
   ...suggesterRoutes(),
+  // Training runs, taggers and comparisons (issue 9).
+  ...trainingRoutes(),
 ];
 
 function suggesterRoutes(): CatalogRoute[] {
@@ -131,6 +133,28 @@ function suggesterRoutes(): CatalogRoute[] {
       probe: () => ({ taggerId: "not-a-tagger" }),
     },
     { method: "get", path: (f) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}/uncertain`, roles: ["admin", "manager", "data_lead"], allowedStatus: 409 },
+  ];
+}
+
+function trainingRoutes(): CatalogRoute[] {
+  const corpus = (f: TenantFixture) => `/orgs/${f.orgId}/corpora/${f.ids.corpusId}`;
+  const TRAINERS: readonly Role[] = ["admin", "data_lead"];
+  const READERS: readonly Role[] = ["admin", "manager", "data_lead"];
+  const tagger = (f: TenantFixture) => `${corpus(f)}/taggers/${f.ids.taggerId}`;
+  const compare = (f: TenantFixture) => `${tagger(f)}/compare/${f.ids.otherTaggerId}`;
+  return [
+    // The probe is a bad config (400): allowed roles get past the guard, nothing is queued.
+    { method: "post", path: (f) => `${corpus(f)}/runs`, roles: TRAINERS, body: () => ({}), probe: () => ({ order: 3 }) },
+    { method: "get", path: (f) => `${corpus(f)}/runs`, roles: READERS },
+    { method: "get", path: (f) => `${corpus(f)}/runs/${f.ids.runId}`, roles: READERS },
+    { method: "post", path: (f) => `${corpus(f)}/runs/${f.ids.runId}/cancel`, roles: TRAINERS },
+    { method: "post", path: (f) => `${corpus(f)}/runs/${f.ids.runId}/repeat`, roles: TRAINERS },
+    { method: "get", path: (f) => `${corpus(f)}/taggers`, roles: READERS },
+    { method: "get", path: (f) => tagger(f), roles: READERS },
+    { method: "get", path: (f) => `${tagger(f)}/download`, roles: TRAINERS },
+    { method: "get", path: (f) => `${tagger(f)}/evaluation`, roles: TRAINERS },
+    { method: "get", path: (f) => compare(f), roles: READERS },
+    { method: "get", path: (f) => `${compare(f)}/documents/${f.ids.documentId}`, roles: READERS },
   ];
 }
 

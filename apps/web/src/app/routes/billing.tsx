@@ -1,6 +1,6 @@
 import { can } from "@tagloom/contracts";
 import { useSearchParams } from "react-router";
-import { EmptyState, Notice, PageHeader, Spinner } from "@/components/ui/card";
+import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { useBilling } from "@/features/billing/api/get-billing";
 import { BuySeatsForm } from "@/features/billing/components/buy-seats-form";
 import { CancelSubscriptionCard } from "@/features/billing/components/cancel-subscription-card";
@@ -34,7 +34,7 @@ function BillingScreen({ orgId, organizationName }: { orgId: string; organizatio
     <div className="max-w-5xl space-y-6">
       <PageHeader title="Billing" subtitle={`Seats and invoices of ${organizationName}.`} />
       {billing.isPending ? (
-        <Spinner />
+        <Skeleton />
       ) : billing.isError ? (
         <Notice tone="error">{billing.error.message}</Notice>
       ) : state ? (

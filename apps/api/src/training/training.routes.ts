@@ -1,0 +1,79 @@
+import { runListQuerySchema, startRunInputSchema, taggerListQuerySchema } from "@tagloom/contracts";
+import { type Request, type Response, Router } from "express";
+import { parseOrThrow } from "@/errors";
+import { actorOf, allow, memberOf } from "@/orgs/org-access";
+import { compareTaggers, getComparisonDocument } from "./comparisons.service";
+import { downloadTaggerEvaluation, downloadTaggerModel, getTagger, listTaggers } from "./taggers.service";
+import { cancelRun, getRun, listRuns, repeatRun, startRun } from "./training-runs.service";
+
+// Roles (abilities `train`, `viewTraining`, `downloadTaggers` in @tagloom/contracts): data leads
+// and admins start, cancel and repeat runs and download taggers; managers read runs, taggers and
+// comparisons; annotators get 403.
+const trainers = allow("data_lead");
+const readers = allow("data_lead", "manager");
+
+export const trainingRouter = Router({ mergeParams: true });
+
+const ids = (req: Request) => ({ corpusId: String(req.params.corpusId), runId: String(req.params.runId) });
+
+function sendFile(res: Response, file: { filename: string; text: string }): void {
+  res.setHeader("Content-Type", "application/json; charset=utf-8");
+  res.setHeader("Content-Disposition", `attachment; filename="${file.filename}"`);
+  res.setHeader("Cache-Control", "no-store");
+  res.send(Buffer.from(file.text, "utf8"));
+}
+
+trainingRouter.post("/corpora/:corpusId/runs", trainers, async (req, res) => {
+  const input = parseOrThrow(startRunInputSchema, req.body ?? {});
+  res.status(202).json(await startRun(memberOf(req).organizationId, ids(req).corpusId, input, actorOf(req)));
+});
+
+trainingRouter.get("/corpora/:corpusId/runs", readers, async (req, res) => {
+  const query = parseOrThrow(runListQuerySchema, req.query, "query");
+  res.json(await listRuns(memberOf(req).organizationId, ids(req).corpusId, query));
+});
+
+trainingRouter.get("/corpora/:corpusId/runs/:runId", readers, async (req, res) => {
+  res.json(await getRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId));
+});
+
+trainingRouter.post("/corpora/:corpusId/runs/:runId/cancel", trainers, async (req, res) => {
+  res.json(await cancelRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId, actorOf(req)));
+});
+
+trainingRouter.post("/corpora/:corpusId/runs/:runId/repeat", trainers, async (req, res) => {
+  res.status(202).json(await repeatRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId, actorOf(req)));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers", readers, async (req, res) => {
+  const query = parseOrThrow(taggerListQuerySchema, req.query, "query");
+  res.json(await listTaggers(memberOf(req).organizationId, ids(req).corpusId, query));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId", readers, async (req, res) => {
+  res.json(await getTagger(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId)));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/download", trainers, async (req, res) => {
+  sendFile(res, await downloadTaggerModel(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), actorOf(req)));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/evaluation", trainers, async (req, res) => {
+  sendFile(res, await downloadTaggerEvaluation(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), actorOf(req)));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId", readers, async (req, res) => {
+  res.json(await compareTaggers(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), String(req.params.otherId)));
+});
+
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId/documents/:documentId", readers, async (req, res) => {
+  res.json(
+    await getComparisonDocument(
+      memberOf(req).organizationId,
+      ids(req).corpusId,
+      String(req.params.taggerId),
+      String(req.params.otherId),
+      String(req.params.documentId),
+    ),
+  );
+});
