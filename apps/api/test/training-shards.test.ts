@@ -33,11 +33,11 @@ describe("sharded counting", () => {
         const shards = parts.map((s) => countShard(s, plan, config));
         expect(statisticsToJson(sumShardStatistics(shards))).toEqual(single.statistics);
         const expected = JSON.stringify(serializeModel(trainTagger(docs, config).model));
-        expect(JSON.stringify(serializeModel(trainFromShards(plan, shards, config).model))).toBe(expected);
+        expect(JSON.stringify(serializeModel(trainFromShards(plan, shards, config, docs).model))).toBe(expected);
         // Folding shards in one at a time (as the finishing job does) gives the same model.
         const folded = shards.reduce((a, b) => mergeShardCounts(a, b));
         expect(folded.statistics).toEqual(single.statistics);
-        expect(JSON.stringify(serializeModel(trainFromShards(plan, [folded], config).model))).toBe(expected);
+        expect(JSON.stringify(serializeModel(trainFromShards(plan, [folded], config, docs).model))).toBe(expected);
       }
     });
   }

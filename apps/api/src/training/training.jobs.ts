@@ -158,7 +158,13 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
     const counts = JSON.parse(text) as ShardCounts;
     summed = summed === null ? counts : mergeShardCounts(summed, counts);
   }
-  const { model: supervised, statistics } = trainFromShards(plan, [summed!], config);
+  // The training documents, in shard order: the confidence calibration, cross-validation and the
+  // learning curve read them.
+  const types = await typeNamesOf(run);
+  const sizes = await shardSizes(run);
+  const train: ColumnDocument[] = [];
+  for (let shard = 0; shard < sizes.length; shard++) train.push(...(await collect(readLabelled(run, "train", shard, sizes[shard]!, types))));
+  const { model: supervised, statistics } = trainFromShards(plan, [summed!], config, train);
   let model = supervised;
 
   const iterations: RunIteration[] = [];
@@ -184,10 +190,6 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
     semi = { method, iterations };
   }
 
-  const types = await typeNamesOf(run);
-  const sizes = await shardSizes(run);
-  const train: ColumnDocument[] = [];
-  for (let shard = 0; shard < sizes.length; shard++) train.push(...(await collect(readLabelled(run, "train", shard, sizes[shard]!, types))));
   let crossValidation = null;
   const folds = run.config.crossValidationFolds;
   if (folds !== null) {

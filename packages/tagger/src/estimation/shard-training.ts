@@ -4,6 +4,7 @@ import { segmentStartTable } from "./context-emissions";
 import { addCount, createCountTable, type CountTable } from "./count-table";
 import { createSuffixCollector, suffixTheta } from "./suffix-model";
 import { addStatistics, type SufficientStatistics } from "./sufficient-statistics";
+import { fitSpanCalibration } from "../model/tagger";
 import { assembleModel, type TaggerModel } from "../model/tagger-model";
 import { countSupervised } from "./train";
 import { resolveTrainingConfig, type TrainingConfig } from "./training-config";
@@ -201,8 +202,18 @@ export function mergeShardCounts(a: ShardCounts, b: ShardCounts): ShardCounts {
  * trainTagger would from the concatenated documents. Returns the summed statistics too, for
  * refineWithUnlabelled.
  */
-export function trainFromShards(plan: ShardPlan, shards: readonly ShardCounts[], config: Partial<TrainingConfig> = {}): { model: TaggerModel; statistics: SufficientStatistics } {
+export function trainFromShards(
+  plan: ShardPlan,
+  shards: readonly ShardCounts[],
+  config: Partial<TrainingConfig> = {},
+  /** The training documents in shard order: the span-confidence calibration is fitted on them as trainTagger does. */
+  calibrationDocuments: readonly ColumnDocument[] = [],
+): { model: TaggerModel; statistics: SufficientStatistics } {
   const resolved = resolve(config);
+  const calibration =
+    resolved.calibration === "platt" && plan.scheme === "iob" && !resolved.nltkCompatible && calibrationDocuments.length > 0
+      ? fitSpanCalibration(calibrationDocuments, resolved)
+      : null;
   const vocabulary = vocabularyOf(plan, resolved);
   const statistics = sumShardStatistics(shards);
   const K = plan.tags.length;
@@ -215,6 +226,7 @@ export function trainFromShards(plan: ShardPlan, shards: readonly ShardCounts[],
     suffix = collector.finish(resolved.suffixTheta ?? suffixTheta(tagCounts));
   }
   const model = assembleModel({
+    calibration,
     config: resolved,
     scheme: plan.scheme,
     tags: plan.tags,

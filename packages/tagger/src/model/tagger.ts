@@ -40,7 +40,7 @@ export function trainTagger(
 ): { model: TaggerModel; history: IterationReport[] } {
   const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
   const data = prepareTrainingData(documents, resolved);
-  const calibration = resolved.calibration === "platt" && data.scheme === "iob" && !resolved.nltkCompatible ? fitCalibration(documents, resolved) : null;
+  const calibration = resolved.calibration === "platt" && data.scheme === "iob" && !resolved.nltkCompatible ? fitSpanCalibration(documents, resolved) : null;
   const model = assembleModel({
     calibration,
     config: resolved,
@@ -71,7 +71,7 @@ const CALIBRATION_FOLDS = 5;
  * the training documents (each fold's model trained on the other folds, same configuration,
  * supervised only); null when there are too few sentences for the folds or no predicted span.
  */
-function fitCalibration(documents: readonly ColumnDocument[], config: TrainingConfig): PlattCalibration | null {
+export function fitSpanCalibration(documents: readonly ColumnDocument[], config: TrainingConfig): PlattCalibration | null {
   if (documents.reduce((n, d) => n + d.sentences.length, 0) < CALIBRATION_FOLDS) return null;
   const plan = planFolds(documents, CALIBRATION_FOLDS);
   const inner: TrainingConfig = { ...config, calibration: "none", semi: "none" };
