@@ -1,4 +1,4 @@
-import { can } from "@tagloom/contracts";
+import { can, finishedRunStatuses } from "@tagloom/contracts";
 import { Link, useParams } from "react-router";
 import { Card, EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
@@ -15,7 +15,7 @@ export function CorpusTrainingRoute() {
   const { corpusId = "" } = useParams();
   const orgId = org.organizationId;
   const runs = useRuns(orgId, corpusId);
-  const taggers = useTaggers(orgId, corpusId);
+  const taggers = useTaggers(orgId, corpusId, runs.data?.items.some((r) => !finishedRunStatuses.includes(r.status)) ?? false);
   const suggester = useSuggester(orgId, corpusId);
   const canTrain = can(org.role, "train");
   return (

@@ -10,6 +10,7 @@ export function useRuns(orgId: string, corpusId: string) {
   return useQuery({
     queryKey: [...runsKey(orgId, corpusId), "list"],
     queryFn: () => api.get<{ items: TrainingRun[]; nextCursor: string | null }>(`${corpusApi(orgId, corpusId)}/runs?limit=${RUN_LIST_LIMIT}`),
+    refetchOnMount: "always",
     refetchInterval: (q) => (q.state.data?.items.some((r) => !finishedRunStatuses.includes(r.status)) ? 2000 : false),
   });
 }

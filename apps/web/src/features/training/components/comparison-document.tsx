@@ -27,7 +27,9 @@ export function ComparisonDocumentView({ doc, labelA, labelB }: { doc: Compariso
             <h3 className="mb-2 text-sm font-semibold text-ink-700">
               {r.title} <span className="font-normal text-ink-500">({r.spans.length} spans)</span>
             </h3>
-            <SpanText text={doc.document.text} spans={r.spans} types={doc.entityTypes} className="leading-9 whitespace-pre-wrap text-ink-900" />
+            <p>
+              <SpanText text={doc.document.text} spans={r.spans} types={doc.entityTypes} className="leading-9 text-ink-900" />
+            </p>
           </section>
         </Card>
       ))}

@@ -48,7 +48,7 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
          */}
         {bs ? (
           <p className="text-sm text-ink-700" data-testid="bootstrap">
-            {Math.round(bs.confidence * 100)} % interval {signed(bs.ci[0])} to {signed(bs.ci[1])}, p = {bs.pValue < 0.001 ? "< 0.001" : bs.pValue.toFixed(3)} ({bs.samples.toLocaleString()} resamples of
+            {Math.round(bs.confidence * 100)} % interval {signed(bs.ci[0])} to {signed(bs.ci[1])}, p {bs.pValue < 0.001 ? "< 0.001" : `= ${bs.pValue.toFixed(3)}`} ({bs.samples.toLocaleString()} resamples of
             the test documents).{" "}
             <span className="text-ink-500">
               {bs.ci[0] > 0
@@ -74,7 +74,8 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
           <ul className="divide-y divide-ink-50" aria-label="Documents where the taggers disagree">
             {c.disagreements.map((d) => (
               <li key={d.documentId} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
-                <Link className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
+                {/* A full page load: an in-app navigation to this view stalled in Chromium (known issue, see the closing note). */}
+                <Link reloadDocument className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
                   {d.title}
                 </Link>
                 <span className="text-xs text-ink-500 tabular-nums">
