@@ -84,7 +84,7 @@ describe("suggestions in the browser", () => {
     await signIn(page, team.boss, `/o/${team.orgId}/corpora/${team.corpusId}`);
     await page.getByRole("navigation", { name: "Corpus" }).getByRole("link", { name: "Most uncertain" }).click();
     await page.getByText(/mean token entropy/).first().waitFor();
-    const rows = page.getByTestId("uncertain-row");
+    const rows = page.getByRole("table", { name: "Most uncertain documents" }).locator("tbody tr");
     await rows.first().waitFor();
     expect(await rows.count()).toBe(14);
     // The manager's reason is on every row.
@@ -92,7 +92,7 @@ describe("suggestions in the browser", () => {
 
     await page.getByLabel("Select the top").fill("5");
     const ranking = await team.api.call<{ items: Array<{ id: string; title: string }> }>("GET", `/orgs/${team.orgId}/corpora/${team.corpusId}/uncertain?limit=5`);
-    const titles = await rows.locator("td:nth-child(3) a").allTextContents();
+    const titles = await rows.getByRole("link").allTextContents();
     expect(titles.slice(0, 5)).toEqual(ranking.items.map((d) => d.title));
     for (let i = 0; i < 14; i++) expect(await rows.nth(i).getByRole("checkbox").isChecked()).toBe(i < 5);
 
