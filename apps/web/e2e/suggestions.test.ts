@@ -91,9 +91,13 @@ describe("suggestions in the browser", () => {
     for (const text of await rows.allTextContents()) expect(text).toMatch(/low-confidence spans: \d+ of \d+|no entities suggested/);
 
     await page.getByLabel("Select the top").fill("5");
-    const ranking = await team.api.call<{ items: Array<{ id: string; title: string }> }>("GET", `/orgs/${team.orgId}/corpora/${team.corpusId}/uncertain?limit=5`);
+    const ranking = await team.api.call<{ items: Array<{ id: string; title: string; score: number }> }>("GET", `/orgs/${team.orgId}/corpora/${team.corpusId}/uncertain?limit=5`);
     const titles = await rows.getByRole("link").allTextContents();
     expect(titles.slice(0, 5)).toEqual(ranking.items.map((d) => d.title));
+    // Shown most uncertain first, and the reports with unfamiliar names are not all alike.
+    const scores = (await rows.locator("td:nth-child(4)").allTextContents()).map(Number);
+    expect(scores).toEqual([...scores].sort((a, b) => b - a));
+    expect(new Set(scores).size).toBeGreaterThan(3);
     for (let i = 0; i < 14; i++) expect(await rows.nth(i).getByRole("checkbox").isChecked()).toBe(i < 5);
 
     await page.getByRole("link", { name: "Make a batch of 5…" }).click();

@@ -26,12 +26,20 @@ function rng(seed: number) {
   };
 }
 
-/** `count` reports of `sentences` sentences, deterministic for a seed. */
-export function makeReports(count: number, sentences: number, seed: number, title: (i: number) => string): ReportLine[] {
+// Names the gold never shows, so that the tagger is unsure about some open reports and not others.
+const UNSEEN = { FIRST: ["Brisa", "Osk", "Thule", "Vanya"], LAST: ["Kettleby", "Drossmoor", "Ulvane", "Pyrrick"], PLACES: ["Hask", "Twell Reach"], ORGS: ["Gantry Nine", "Ebbwick Co"] };
+
+/**
+ * `count` reports of `sentences` sentences, deterministic for a seed. With `unseen`, report i
+ * draws names the gold never shows with probability about i / count.
+ */
+export function makeReports(count: number, sentences: number, seed: number, title: (i: number) => string, unseen = false): ReportLine[] {
   const next = rng(seed);
+  let d = 0;
+  const pickFrom = <T>(list: readonly T[], fresh: readonly T[]) => (unseen && next(count) < d ? fresh[next(fresh.length)]! : list[next(list.length)]!);
   const pick = <T>(list: readonly T[]) => list[next(list.length)]!;
   const out: ReportLine[] = [];
-  for (let d = 0; d < count; d++) {
+  for (d = 0; d < count; d++) {
     let text = "";
     const spans: ReportLine["spans"] = [];
     for (let s = 0; s < sentences; s++) {
@@ -43,7 +51,12 @@ export function makeReports(count: number, sentences: number, seed: number, titl
           continue;
         }
         const type = m[1]!;
-        const name = type === "PERSON" ? `${pick(FIRST)} ${pick(LAST)}` : type === "PLACE" ? pick(PLACES) : pick(ORGS);
+        const name =
+          type === "PERSON"
+            ? `${pickFrom(FIRST, UNSEEN.FIRST)} ${pickFrom(LAST, UNSEEN.LAST)}`
+            : type === "PLACE"
+              ? pickFrom(PLACES, UNSEEN.PLACES)
+              : pickFrom(ORGS, UNSEEN.ORGS);
         spans.push({ start: text.length, end: text.length + name.length, type });
         text += name;
       }
@@ -81,7 +94,7 @@ export async function setUpSuggestTeam(baseUrl: string, mailUrl: string, stamp: 
   const lead = await join(team, baseUrl, mailUrl, "data_lead", "Sable Norwick", `lead-${stamp}@example.test`);
   const boss = await join(team, baseUrl, mailUrl, "manager", "Ansel Drummock", `boss-${stamp}@example.test`);
   const gold = makeReports(40, 5, 7, (i) => `Gold report ${i + 1}`).map((r, i) => ({ ...r, split: i % 4 === 3 ? ("test" as const) : ("train" as const) }));
-  const open = makeReports(12, 5, 91, (i) => `Open report ${i + 1}`).map((r) => ({ ...r, spans: [] }));
+  const open = makeReports(12, 5, 91, (i) => `Open report ${i + 1}`, true).map((r) => ({ ...r, spans: [] }));
   await uploadJsonl(team, "gold-reports.jsonl", gold, "gold");
   await uploadJsonl(team, "open-reports.jsonl", open, "suggested");
   const expected = 2 + gold.length + open.length;
