@@ -1,10 +1,13 @@
 // The tagging API under load: 20 concurrent clients, each with its own connection, POSTing one
 // invented text of about 200 tokens to /api/v1/corpora/:corpusId/tag with a bearer token, against
 // the API in its own process and a throwaway PostgreSQL on 127.0.0.1. Two bounded runs:
-//   paced:     each client sends RATE requests a second (default 5, so 100/s in all): the latency
-//              a pipeline sees (target, issue 10: p95 under 30 ms, zero errors);
-//   saturated: each client sends as fast as the server answers: the throughput (its latency is
-//              then the queueing of 20 callers, not the cost of one request).
+//   concurrent: each of the 20 clients sends its next request as soon as its answer arrives (a
+//               closed loop, 20 requests always in flight): the target of issue 10 (p95 under
+//               30 ms, zero errors) and the throughput;
+//   bursts:     each client may send RATE requests a second (default 5, so 100/s in all). Note how
+//               autocannon paces: every connection's allowance is released at the same instant
+//               each second, so the 100 requests arrive as one burst and their latency is that
+//               burst's queueing, not a pipeline's steady 100/s. Reported, not judged.
 // The rate limit is raised for the run (TAGGING_RATE_LIMIT) so that it measures tagging only.
 //
 // Run: cd apps/api && npx tsx bench/tagging-api.ts [seconds=10] [clients=20] [rate=5]
@@ -81,10 +84,10 @@ try {
     console.log(`${label}: ${summary.requests} requests (${summary.perSecond}/s, ${summary.tokensPerSecond} tokens/s), p50 ${summary.p50} ms, p95 ${summary.p95} ms, p99 ${summary.p99} ms, errors ${summary.errors}`);
     return summary;
   };
-  const paced = await run(`paced (${RATE}/s per client)`, RATE);
-  const saturated = await run("saturated", null);
-  const ok = paced.errors === 0 && saturated.errors === 0 && paced.p95 < P95_TARGET_MS;
-  console.log(JSON.stringify({ bench: "tagging-api", tokens, clients: CLIENTS, paced, saturated, p95TargetMs: P95_TARGET_MS, pass: ok }));
+  const concurrent = await run(`concurrent (${CLIENTS} clients, closed loop)`, null);
+  const bursts = await run(`bursts (${RATE}/s per client, released together)`, RATE);
+  const ok = concurrent.errors === 0 && bursts.errors === 0 && concurrent.p95 < P95_TARGET_MS;
+  console.log(JSON.stringify({ bench: "tagging-api", tokens, clients: CLIENTS, concurrent, bursts, p95TargetMs: P95_TARGET_MS, pass: ok }));
   process.exitCode = ok ? 0 : 1;
 } finally {
   await product.stop();

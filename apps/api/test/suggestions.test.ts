@@ -154,10 +154,28 @@ describe("the corpus suggester", () => {
     const rows = await taggerRows([fresh.id]);
     expect(rows).toHaveLength(1);
     expect(rows[0].spans.length).toBe(3);
+    expect(rows[0].spans.map((x: { start: number; end: number }) => [x.start, x.end])).toEqual(tagText(s.a.model, fresh.text).map((x) => [x.start, x.end]));
+
+    // Uploaded as suggestions, one with a suggested span (kept) and one with none (the tagger fills it).
+    const imported = [
+      { title: "Imported guess", text: "Mira Quell met Tobin Vale in Saltmarsh.", spans: [{ start: 0, end: 10, type: "PARTY", confidence: 0.5 }] },
+      { title: "Imported blank", text: "On day 5 Orla Finch met Ines Ashby in Brindlecombe.", spans: [] },
+    ];
+    const up2 = await uploadAndWait(s.manager.agent, s.admin.orgId, s.data.corpusId, [{ name: "imported.jsonl", content: imported.map((l) => JSON.stringify(l)).join("\n") }], { spanMode: "suggested" });
+    expect(up2.byName["imported.jsonl"]?.state).toBe("ready");
+    const status2 = await waitForRuns(s.lead.agent, s.base);
+    expect(status2.runs[0]).toMatchObject({ reason: "new_documents", documentsTotal: 2, documentsDone: 2 });
+    const [guess, blank] = await Promise.all(imported.map((l) => db("documents").where({ corpus_id: s.data.corpusId, title: l.title }).first("id", "text")));
+    const [guessRow] = await taggerRows([guess.id]);
+    expect(guessRow).toMatchObject({ source: "import", spans: [{ start: 0, end: 10, typeId: s.data.types.PARTY!.id, confidence: 0.5 }] });
+    const [blankRow] = await taggerRows([blank.id]);
+    expect(blankRow).toMatchObject({ source: "tagger", tagger_id: s.taggerA.id });
+    expect(blankRow.spans.map((x: { start: number; end: number }) => [x.start, x.end])).toEqual(tagText(s.a.model, blank.text).map((x) => [x.start, x.end]));
+    expect(blankRow.spans.length).toBe(3);
 
     const ranking = await s.manager.agent.get(`${s.base}/uncertain?limit=5`);
     expect(ranking.status, JSON.stringify(ranking.body)).toBe(200);
-    expect(ranking.body).toMatchObject({ measure: "mean_token_entropy", considered: texts.length + 1, tagger: { id: s.taggerA.id } });
+    expect(ranking.body).toMatchObject({ measure: "mean_token_entropy", considered: texts.length + 3, tagger: { id: s.taggerA.id } });
     // The engine's own scores, computed here from the document texts, give the same order.
     const all = await db("documents").where({ corpus_id: s.data.corpusId }).select("id", "text");
     const expected = all

@@ -110,7 +110,8 @@ export type ShardResult = {
 
 /**
  * Writes the tagger's suggestions and scores of documents that still have no gold. A document
- * whose suggestions came from an import keeps them (only its score is written).
+ * whose suggestions came from an import keeps them (only its score is written), unless the
+ * import suggested no span at all.
  */
 export async function writeShardResults(organizationId: string, corpusId: string, taggerId: string, results: ShardResult[], db: Db): Promise<number> {
   if (results.length === 0) return 0;
@@ -124,7 +125,8 @@ export async function writeShardResults(organizationId: string, corpusId: string
     .insert(live.map((r) => ({ document_id: r.documentId, organization_id: organizationId, spans: JSON.stringify(r.spans), source: "tagger", tagger_id: taggerId })))
     .onConflict("document_id")
     .merge(["spans", "source", "tagger_id", "created_at"])
-    .where("document_suggestions.source", "tagger");
+    // An import that suggested nothing (an empty list) has nothing to keep: the tagger fills it.
+    .where((w) => w.where("document_suggestions.source", "tagger").orWhereRaw("document_suggestions.spans = '[]'::jsonb"));
   await db("document_uncertainty")
     .insert(
       live.map((r) => ({

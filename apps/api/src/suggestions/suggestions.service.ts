@@ -96,6 +96,7 @@ export async function setSuggester(organizationId: string, corpusId: string, inp
     });
     return tagger && runId ? { taggerId: tagger.id, runId, ids } : null;
   });
+  suggesterCache.delete(`${organizationId}:${corpusId}`);
   if (queued) await enqueueShards({ organizationId, corpusId, taggerId: queued.taggerId, runId: queued.runId }, queued.ids);
   return getSuggesterStatus(organizationId, corpusId);
 }
@@ -203,4 +204,22 @@ export async function recordSuggestionDecisions(
 export async function getCorpusSuggester(organizationId: string, corpusId: string): Promise<{ taggerId: string | null } | null> {
   const row = await findSuggester(organizationId, corpusId);
   return row ? { taggerId: row.taggerId } : null;
+}
+
+// The tagging API asks for the suggester on every request; remembering it for a moment spares a
+// busy pipeline that query. A change made through this process is seen at once (setSuggester
+// forgets the entry), one made through another API process within SUGGESTER_CACHE_MS.
+const SUGGESTER_CACHE_MS = 1000;
+const suggesterCache = new Map<string, { value: { taggerId: string | null } | null; until: number }>();
+
+/** getCorpusSuggester, remembered per organization and corpus for SUGGESTER_CACHE_MS. */
+export async function getCorpusSuggesterForTagging(organizationId: string, corpusId: string): Promise<{ taggerId: string | null } | null> {
+  const key = `${organizationId}:${corpusId}`;
+  const now = Date.now();
+  const hit = suggesterCache.get(key);
+  if (hit && hit.until > now) return hit.value;
+  const value = await getCorpusSuggester(organizationId, corpusId);
+  if (suggesterCache.size >= 10_000) suggesterCache.clear();
+  suggesterCache.set(key, { value, until: now + SUGGESTER_CACHE_MS });
+  return value;
 }

@@ -1,7 +1,7 @@
 import { type TagRequest, type TagResponse, taggingLimits } from "@tagloom/contracts";
 import { ConflictError, NotFoundError, PayloadTooLargeError } from "@/errors";
-import { getCorpusSuggester } from "@/suggestions/suggestions.service";
 import { tagText } from "./tag-text";
+import { getCorpusSuggesterForTagging } from "@/suggestions/suggestions.service";
 import { loadTagger } from "./tagger-source";
 
 function checkLimits(texts: string[]): void {
@@ -18,8 +18,8 @@ function checkLimits(texts: string[]): void {
 export async function tagTextsForToken(organizationId: string, corpusId: string, body: TagRequest): Promise<TagResponse> {
   const texts = body.texts ?? [body.text!];
   checkLimits(texts);
-  // One query per request besides the token's: the suggester's tagger and model are cached.
-  const suggester = await getCorpusSuggester(organizationId, corpusId);
+  // No query per request besides the token's: the suggester (for a moment), its tagger and model are cached.
+  const suggester = await getCorpusSuggesterForTagging(organizationId, corpusId);
   if (!suggester) throw new NotFoundError("corpus");
   if (!suggester.taggerId) throw new ConflictError("This corpus has no suggester: a data lead must pick one of its taggers before the tagging API can use it.", null, "no_suggester");
   const { tagger, model } = await loadTagger(organizationId, corpusId, suggester.taggerId);

@@ -1,8 +1,12 @@
-import type { UncertainRanking } from "@tagloom/contracts";
-import { useState } from "react";
+import type { UncertainDocument, UncertainRanking } from "@tagloom/contracts";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { useMemo, useState } from "react";
 import { Link } from "react-router";
+import { DataTable } from "@/components/ui/data-table";
 import { Field, Input } from "@/components/ui/field";
 import { formatCount } from "@/lib/format";
+
+const col = createColumnHelper<UncertainDocument>();
 
 /**
  * Documents without gold, most uncertain first, with the score and a plain reason. The manager
@@ -21,6 +25,54 @@ export function UncertainTable({
   const [picked, setPicked] = useState<Set<string> | null>(null);
   const selected = picked ?? new Set(ranking.items.slice(0, top).map((d) => d.id));
   const ids = ranking.items.filter((d) => selected.has(d.id)).map((d) => d.id);
+  const columns = useMemo(
+    () => [
+      ...(batchLink
+        ? [
+            col.display({
+              id: "selected",
+              header: () => <span className="sr-only">Selected</span>,
+              cell: (c) => (
+                <input
+                  type="checkbox"
+                  aria-label={`Select ${c.row.original.title}`}
+                  checked={selected.has(c.row.original.id)}
+                  onChange={(e) => {
+                    const next = new Set(selected);
+                    if (e.target.checked) next.add(c.row.original.id);
+                    else next.delete(c.row.original.id);
+                    setPicked(next);
+                  }}
+                />
+              ),
+            }),
+          ]
+        : []),
+      col.display({ id: "rank", header: "Rank", cell: (c) => <span className="text-ink-500 tabular-nums">{c.row.index + 1}</span> }),
+      col.accessor("title", {
+        header: "Document",
+        cell: (c) => (
+          <span className="whitespace-nowrap">
+            <Link className="font-medium text-ink-900 hover:underline" to={linkTo(c.row.original.id)}>
+              {c.getValue()}
+            </Link>
+            <span className="ml-2 text-xs text-ink-500">{formatCount(c.row.original.tokenCount)} tokens</span>
+          </span>
+        ),
+      }),
+      col.accessor("score", {
+        header: () => <span className="block text-right">Uncertainty</span>,
+        cell: (c) => (
+          <span className="block text-right tabular-nums" title={`Least confidence ${c.row.original.leastConfidence.toFixed(3)}`}>
+            {c.getValue().toFixed(3)}
+          </span>
+        ),
+      }),
+      col.accessor("reason", { header: "Why", cell: (c) => <span className="text-ink-700">{c.getValue()}</span> }),
+    ],
+    [batchLink, linkTo, selected],
+  );
+  const table = useReactTable({ data: ranking.items, columns, getCoreRowModel: getCoreRowModel(), getRowId: (d) => d.id });
   return (
     <div className="space-y-3">
       {batchLink ? (
@@ -51,64 +103,7 @@ export function UncertainTable({
           )}
         </div>
       ) : null}
-      <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
-        <table className="w-full text-left text-sm">
-          <caption className="sr-only">Most uncertain documents</caption>
-          <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">
-            <tr>
-              {batchLink ? (
-                <th scope="col" className="w-10 px-4 py-2.5">
-                  <span className="sr-only">Selected</span>
-                </th>
-              ) : null}
-              <th scope="col" className="px-4 py-2.5 font-semibold">
-                Rank
-              </th>
-              <th scope="col" className="px-4 py-2.5 font-semibold">
-                Document
-              </th>
-              <th scope="col" className="px-4 py-2.5 text-right font-semibold">
-                Uncertainty
-              </th>
-              <th scope="col" className="px-4 py-2.5 font-semibold">
-                Why
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {ranking.items.map((d, i) => (
-              <tr key={d.id} className="border-b border-ink-50 last:border-0" data-testid="uncertain-row">
-                {batchLink ? (
-                  <td className="px-4 py-2">
-                    <input
-                      type="checkbox"
-                      aria-label={`Select ${d.title}`}
-                      checked={selected.has(d.id)}
-                      onChange={(e) => {
-                        const next = new Set(selected);
-                        if (e.target.checked) next.add(d.id);
-                        else next.delete(d.id);
-                        setPicked(next);
-                      }}
-                    />
-                  </td>
-                ) : null}
-                <td className="px-4 py-2 text-ink-500 tabular-nums">{i + 1}</td>
-                <td className="px-4 py-2">
-                  <Link className="font-medium text-ink-900 hover:underline" to={linkTo(d.id)}>
-                    {d.title}
-                  </Link>
-                  <span className="ml-2 text-xs text-ink-500">{formatCount(d.tokenCount)} tokens</span>
-                </td>
-                <td className="px-4 py-2 text-right tabular-nums" title={`Least confidence ${d.leastConfidence.toFixed(3)}`}>
-                  {d.score.toFixed(3)}
-                </td>
-                <td className="px-4 py-2 text-ink-700">{d.reason}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <DataTable table={table} flexRender={flexRender} caption="Most uncertain documents" />
     </div>
   );
 }
