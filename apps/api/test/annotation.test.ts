@@ -226,6 +226,9 @@ describe("queue and workspace", () => {
     expect((await ann1.agent.get(`${base()}/assignments/${mine}`)).body).toMatchObject({ state: "submitted", canEdit: false });
     const queue = (await ann1.agent.get(`/api/orgs/${org}/queue`)).body;
     expect(queue.items.map((i: { assignmentId: string }) => i.assignmentId)).not.toContain(mine);
+    // Submitted work moves to the "Done" list, the latest first; nobody else's appears there.
+    expect(queue.done[0]).toMatchObject({ assignmentId: mine, state: "submitted" });
+    expect(queue.done.map((i: { assignmentId: string }) => i.assignmentId)).not.toContain(theirs);
   });
 });
 

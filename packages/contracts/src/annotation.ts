@@ -127,8 +127,8 @@ export type QueueItem = {
   reviewComment: string | null;
   updatedAt: string;
 };
-/** My unfinished assignments in the organization, the one to do next first. */
-export type Queue = { items: QueueItem[]; next: QueueItem | null };
+/** My unfinished assignments in the organization, the one to do next first, and my finished ones (latest first, at most 50). */
+export type Queue = { items: QueueItem[]; next: QueueItem | null; done: QueueItem[] };
 
 export type AnnotationDocument = { id: string; title: string; text: string; tokens: DocumentTokens };
 

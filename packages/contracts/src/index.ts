@@ -12,3 +12,4 @@ export * from "./billing";
 export * from "./text-safety";
 export * from "./training";
 export * from "./suggestions";
+export * from "./audit-actions";

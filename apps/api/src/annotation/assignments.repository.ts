@@ -209,6 +209,17 @@ export async function listQueueHeads(organizationId: string, annotatorId: string
   return rows.map(toHead);
 }
 
+/** A member's finished assignments (submitted or accepted), the most recently changed first. */
+export async function listDoneHeads(organizationId: string, annotatorId: string, limit: number, db: Db = defaultDb): Promise<AssignmentHead[]> {
+  const rows = await db("assignments")
+    .where({ organization_id: organizationId, annotator_id: annotatorId })
+    .whereIn("state", ["submitted", "accepted"])
+    .orderBy([{ column: "updated_at", order: "desc" }, { column: "id" }])
+    .limit(limit)
+    .select(headColumns);
+  return rows.map(toHead);
+}
+
 /** Documents of the organization (optionally one corpus or batch) that have a submitted assignment, with all their assignments. */
 export async function listReviewHeads(
   organizationId: string,

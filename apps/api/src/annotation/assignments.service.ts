@@ -22,6 +22,7 @@ import {
   type AssignmentRow,
   allAssignmentsOfDocumentFinished,
   findAssignment,
+  listDoneHeads,
   listQueueHeads,
   markSubmitted,
   saveAssignmentSpans,
@@ -188,18 +189,25 @@ const STATE_ORDER = { returned: 0, in_progress: 1, open: 2, submitted: 3, accept
  * The member's unfinished assignments across corpora: sent-back work first, then by due date
  * (none last), work already started before new work, oldest first.
  */
+/** How many finished assignments the queue's "Done" list shows. */
+const DONE_LIMIT = 50;
+
 export async function getQueue(member: MemberContext): Promise<Queue> {
-  const heads = await listQueueHeads(member.organizationId, member.userId);
-  const [batches, docs] = await Promise.all([
-    findBatchesByIds(member.organizationId, [...new Set(heads.map((h) => h.batchId))]),
-    getDocumentSummaries(member.organizationId, [...new Set(heads.map((h) => h.documentId))]),
+  const [heads, doneHeads] = await Promise.all([
+    listQueueHeads(member.organizationId, member.userId),
+    listDoneHeads(member.organizationId, member.userId, DONE_LIMIT),
   ]);
-  const corpusIds = [...new Set(heads.map((h) => h.corpusId))];
+  const all = [...heads, ...doneHeads];
+  const [batches, docs] = await Promise.all([
+    findBatchesByIds(member.organizationId, [...new Set(all.map((h) => h.batchId))]),
+    getDocumentSummaries(member.organizationId, [...new Set(all.map((h) => h.documentId))]),
+  ]);
+  const corpusIds = [...new Set(all.map((h) => h.corpusId))];
   const corpora = await Promise.all(corpusIds.map((id) => getCorpus(member.organizationId, id)));
   const corpusName = new Map(corpora.map((c) => [c.id, c.name]));
   const batchById = new Map(batches.map((b) => [b.id, b]));
   const docById = new Map(docs.map((d) => [d.id, d]));
-  const items: QueueItem[] = heads.map((h) => ({
+  const toItem = (h: (typeof all)[number]): QueueItem => ({
     assignmentId: h.id,
     corpusId: h.corpusId,
     corpusName: corpusName.get(h.corpusId) ?? "",
@@ -212,7 +220,9 @@ export async function getQueue(member: MemberContext): Promise<Queue> {
     state: h.state,
     reviewComment: h.reviewComment,
     updatedAt: iso(h.updatedAt)!,
-  }));
+  });
+  const items = heads.map(toItem);
+  const done = doneHeads.map(toItem);
   const created = new Map(heads.map((h) => [h.id, h.createdAt.getTime()]));
   items.sort((a, b) => {
     const returned = Number(b.state === "returned") - Number(a.state === "returned");
@@ -221,5 +231,5 @@ export async function getQueue(member: MemberContext): Promise<Queue> {
     if (due) return due;
     return STATE_ORDER[a.state] - STATE_ORDER[b.state] || created.get(a.assignmentId)! - created.get(b.assignmentId)!;
   });
-  return { items, next: items[0] ?? null };
+  return { items, next: items[0] ?? null, done };
 }

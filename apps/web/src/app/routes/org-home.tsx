@@ -1,32 +1,37 @@
 import { can, roleLabels } from "@tagloom/contracts";
-import { Link } from "react-router";
-import { Card, PageHeader } from "@/components/ui/card";
-import { paths } from "@/config/paths";
+import { PageHeader } from "@/components/ui/card";
+import { useCorpora } from "@/features/corpora/api/get-corpora";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { RecentAuditSection, SeatsSection } from "./overview/admin";
+import { BatchProgressSection, DocumentsByStatusSection } from "./overview/batches";
+import { MyWorkSection } from "./overview/my-work";
+import { TrainingSection } from "./overview/training";
 
-/** The first screen of an organization: where each role's work starts. */
+/** How many corpora the overview summarises (the corpora screen lists them all). */
+const CORPORA_SHOWN = 3;
+
+/**
+ * The first screen of an organization, per role: an annotator's open work and due dates; a
+ * manager's batch progress and documents by status; a data lead's suggesters and latest runs; an
+ * admin's seats and recent activity besides the team's progress.
+ */
 export function OrgHomeRoute() {
   const org = useCurrentOrg();
   const id = org.organizationId;
-  const cards = [
-    { show: can(org.role, "annotate"), title: "My queue", text: "Documents assigned to you, with their due dates.", to: paths.org.queue.build(id) },
-    { show: true, title: "Corpora", text: "Bodies of documents, each with its entity schema.", to: paths.org.corpora.build(id) },
-    { show: can(org.role, "manageBatches"), title: "Batches", text: "Give documents to annotators, follow progress, settle disagreements.", to: paths.org.batches.build(id) },
-    { show: can(org.role, "train"), title: "Taggers", text: "Train taggers on gold data and compare them on held-out documents.", to: paths.org.taggers.build(id) },
-    { show: true, title: "Members", text: "Who is in the organization and their roles.", to: paths.org.members.build(id) },
-  ].filter((c) => c.show);
+  const role = org.role;
+  const seesCorpora = can(role, "viewCorpusData");
+  const corpora = useCorpora(id, "false", { enabled: seesCorpora });
+  const firstCorpora = (corpora.data?.pages[0]?.items ?? []).slice(0, CORPORA_SHOWN);
   return (
-    <div className="max-w-5xl">
-      <PageHeader title={org.organizationName} subtitle={`You are ${roleLabels[org.role].toLowerCase()} here.`} />
-      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-        {cards.map((c) => (
-          <Link key={c.title} to={c.to} className="group">
-            <Card className="h-full transition-shadow group-hover:shadow-md">
-              <h2 className="font-semibold text-ink-900">{c.title}</h2>
-              <p className="mt-1 text-sm text-ink-500">{c.text}</p>
-            </Card>
-          </Link>
-        ))}
+    <div className="max-w-6xl">
+      <PageHeader title={org.organizationName} subtitle={`You are ${roleLabels[role].toLowerCase()} here.`} />
+      <div className="grid gap-4 lg:grid-cols-2">
+        <MyWorkSection orgId={id} onlyWhenAssigned={role !== "annotator"} />
+        {can(role, "manageBilling") ? <SeatsSection orgId={id} /> : null}
+        {can(role, "manageBatches") ? <BatchProgressSection orgId={id} /> : null}
+        {role === "manager" ? <DocumentsByStatusSection orgId={id} corpora={firstCorpora} /> : null}
+        {can(role, "train") ? <TrainingSection orgId={id} corpora={firstCorpora} /> : null}
+        {can(role, "viewAudit") ? <RecentAuditSection orgId={id} /> : null}
       </div>
       <p className="mt-8 max-w-3xl text-xs text-ink-500">
         Documents may hold personal data: handle them under your organization's rules. Tagger output is a suggestion with a confidence, not an

@@ -5,6 +5,7 @@ import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
 import { useAppMeta, useOutbox } from "@/features/outbox/api/outbox";
 import { cn } from "@/lib/cn";
 import { NotFoundRoute } from "./not-found";
+import { formatTime } from "@/lib/dates";
 
 /** Development only: the e-mails the local mail catcher received, newest first. */
 export function OutboxRoute() {
@@ -43,7 +44,7 @@ export function OutboxRoute() {
                 >
                   <span className="block truncate text-sm font-medium text-ink-900">{m.subject}</span>
                   <span className="block truncate text-xs text-ink-500">
-                    to {m.to.join(", ")} · {new Date(m.receivedAt).toLocaleTimeString()}
+                    to {m.to.join(", ")} · {formatTime(m.receivedAt)}
                   </span>
                 </button>
               </li>

@@ -73,7 +73,7 @@ export function OrgShell({ me, orgId }: { me: Me; orgId: string }) {
       </div>
       <footer className="flex items-center justify-between border-t border-ink-100 px-4 py-2">
         <HealthStatus />
-        <span className="text-xs text-ink-300">Tagloom</span>
+        <span className="text-xs text-ink-500">Tagloom</span>
       </footer>
     </div>
   );

@@ -16,7 +16,9 @@ export function DataTable<T>({
   rowClassName?: (row: T) => string | undefined;
 }) {
   return (
-    <div className={cn("overflow-x-auto rounded-lg border border-ink-100 bg-white", className)}>
+    // relative: screen-reader-only text in far cells is positioned absolutely; without a positioned
+    // scroll box it would escape the box and widen the whole page on a phone.
+    <div className={cn("relative overflow-x-auto rounded-lg border border-ink-100 bg-white", className)}>
       <table className="w-full text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">

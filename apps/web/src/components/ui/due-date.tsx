@@ -3,7 +3,7 @@ import { formatDate, formatDue } from "@/lib/dates";
 
 /** A due day: the date in the browser's locale and how far off it is ("due in 3 days", "2 days overdue"). */
 export function DueDate({ day, className }: { day: string | null; className?: string }) {
-  if (!day) return <span className="text-ink-300">No due date</span>;
+  if (!day) return <span className="text-ink-500">No due date</span>;
   const due = formatDue(day);
   return (
     <span className={cn("whitespace-nowrap", className)}>

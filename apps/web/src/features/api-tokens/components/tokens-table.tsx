@@ -5,9 +5,10 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/data-table";
 import { useRevokeApiToken } from "../api/revoke-api-token";
+import { formatDate, formatDateTime } from "@/lib/dates";
 
 const col = createColumnHelper<ApiToken>();
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : "never");
+const when = (iso: string | null) => (iso ? formatDateTime(iso) : "never");
 
 export function TokensTable({ orgId, tokens }: { orgId: string; tokens: ApiToken[] }) {
   const revoke = useRevokeApiToken(orgId);
@@ -23,7 +24,7 @@ export function TokensTable({ orgId, tokens }: { orgId: string; tokens: ApiToken
         header: () => <span className="sr-only">Actions</span>,
         cell: (c) => {
           const t = c.row.original;
-          if (t.revokedAt) return <span className="text-xs text-ink-500">Revoked {new Date(t.revokedAt).toLocaleDateString()}</span>;
+          if (t.revokedAt) return <span className="text-xs text-ink-500">Revoked {formatDate(t.revokedAt)}</span>;
           return (
             <span className="flex justify-end">
               <Button

@@ -82,7 +82,7 @@ export function BatchDocuments({ batch, reviewLink }: { batch: BatchDetail; revi
                       Review{d.assignments.length > 1 ? ` (${submitted} of ${d.assignments.length} in)` : ""}
                     </Link>
                   ) : (
-                    <span className="text-xs text-ink-300">Waiting</span>
+                    <span className="text-xs text-ink-500">Waiting</span>
                   )}
                 </td>
               </tr>

@@ -1,3 +1,5 @@
+import { formatDate } from "@/lib/dates";
+
 /** An amount in minor units as money: 54.00 EUR → "€54.00". */
 export function formatMoney(minor: number, currency: string): string {
   try {
@@ -7,10 +9,10 @@ export function formatMoney(minor: number, currency: string): string {
   }
 }
 
-/** A date as "2 Jan 2027". */
+/** A date in the app's one date format (the browser's locale), "—" when there is none. */
 export function formatDay(isoText: string | null): string {
   if (!isoText) return "—";
-  return new Date(isoText).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric" });
+  return formatDate(isoText);
 }
 
 const statusLabels: Record<string, string> = {

@@ -6,6 +6,8 @@ import { describe, expect, it } from "vitest";
 import { server } from "@/testing/server";
 import { renderWithProviders } from "@/testing/test-utils";
 import { PaymentFailedBanner } from "./payment-failed-banner";
+// The app's one date format (browser locale), so the test holds in any locale.
+import { formatDate } from "@/lib/dates";
 
 const ORG = "11111111-1111-4111-8111-111111111111";
 const state: BillingState = {
@@ -33,7 +35,7 @@ describe("PaymentFailedBanner", () => {
       http.get(`/api/orgs/${ORG}/billing`, () => HttpResponse.json(state)),
     );
     renderWithProviders(<PaymentFailedBanner orgId={ORG} state={state} />);
-    expect(screen.getByRole("alert")).toHaveTextContent("Your 8 seats stay until 31 Jan 2027");
+    expect(screen.getByRole("alert")).toHaveTextContent(`Your 8 seats stay until ${formatDate("2027-01-31T00:00:00.000Z")}`);
     await userEvent.click(screen.getByRole("button", { name: "Retry the payment" }));
     expect(await screen.findByText("The payment was declined: Your card was declined.")).toBeInTheDocument();
     expect(retries).toBe(1);

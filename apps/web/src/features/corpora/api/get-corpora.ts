@@ -16,6 +16,6 @@ export const corporaQueryOptions = (orgId: string, archived: CorporaFilter) =>
     getNextPageParam: (last) => last.nextCursor ?? undefined,
   });
 
-export function useCorpora(orgId: string, archived: CorporaFilter = "false") {
-  return useInfiniteQuery(corporaQueryOptions(orgId, archived));
+export function useCorpora(orgId: string, archived: CorporaFilter = "false", { enabled = true }: { enabled?: boolean } = {}) {
+  return useInfiniteQuery({ ...corporaQueryOptions(orgId, archived), enabled });
 }

@@ -3,6 +3,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { formatCount } from "@/lib/format";
+import { formatDate } from "@/lib/dates";
 
 const col = createColumnHelper<CorpusSummary>();
 type TableMeta = { linkTo: (corpusId: string) => string };
@@ -24,7 +25,7 @@ const columns = [
   }),
   col.accessor("documentCount", { header: "Documents", cell: (c) => formatCount(c.getValue()) }),
   col.accessor("entityTypeCount", { header: "Entity types", cell: (c) => formatCount(c.getValue()) }),
-  col.accessor("createdAt", { header: "Created", cell: (c) => <span className="text-ink-500">{new Date(c.getValue()).toLocaleDateString()}</span> }),
+  col.accessor("createdAt", { header: "Created", cell: (c) => <span className="text-ink-500">{formatDate(c.getValue())}</span> }),
 ];
 
 /** The organization's corpora with their sizes; each name opens the corpus. */

@@ -235,7 +235,7 @@ export function DocumentsTable({
         <Button size="sm" variant="secondary" disabled={!docs.data?.nextCursor} onClick={() => docs.data?.nextCursor && setCursors((c) => [...c, docs.data.nextCursor!])}>
           Next
         </Button>
-        {docs.isFetching && !docs.isPending ? <span className="text-xs text-ink-300">Refreshing…</span> : null}
+        {docs.isFetching && !docs.isPending ? <span className="text-xs text-ink-500">Refreshing…</span> : null}
       </div>
     </section>
   );

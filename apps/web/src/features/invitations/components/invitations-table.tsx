@@ -8,6 +8,7 @@ import { useToast } from "@/components/ui/toaster";
 import { cn } from "@/lib/cn";
 import { SeatLimitNotice, isSeatLimitError } from "./seat-limit-notice";
 import { useResendInvitation, useRevokeInvitation } from "../api/invitations";
+import { formatDate, formatDateTime } from "@/lib/dates";
 
 const col = createColumnHelper<Invitation>();
 const statusText: Record<Invitation["status"], string> = { pending: "Waiting", accepted: "Joined", revoked: "Withdrawn", expired: "Expired" };
@@ -39,9 +40,9 @@ export function InvitationsTable({ orgId, invitations }: { orgId: string; invita
       }),
       col.accessor("lastSentAt", {
         header: "Last sent",
-        cell: (c) => `${new Date(c.getValue()).toLocaleString()}${c.row.original.sendCount > 1 ? ` (${c.row.original.sendCount}×)` : ""}`,
+        cell: (c) => `${formatDateTime(c.getValue())}${c.row.original.sendCount > 1 ? ` (${c.row.original.sendCount}×)` : ""}`,
       }),
-      col.accessor("expiresAt", { header: "Expires", cell: (c) => new Date(c.getValue()).toLocaleDateString() }),
+      col.accessor("expiresAt", { header: "Expires", cell: (c) => formatDate(c.getValue()) }),
       col.display({
         id: "actions",
         header: () => <span className="sr-only">Actions</span>,

@@ -5,6 +5,7 @@ import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/data-table";
 import { useChangeMemberRole, useRemoveMember } from "../api/members";
+import { formatDate } from "@/lib/dates";
 
 const col = createColumnHelper<Member>();
 
@@ -43,7 +44,7 @@ export function MembersTable({ orgId, members, canManage, currentUserId }: { org
             roleLabels[c.getValue()]
           ),
       }),
-      col.accessor("joinedAt", { header: "Joined", cell: (c) => new Date(c.getValue()).toLocaleDateString() }),
+      col.accessor("joinedAt", { header: "Joined", cell: (c) => formatDate(c.getValue()) }),
       col.display({
         id: "actions",
         header: () => <span className="sr-only">Actions</span>,

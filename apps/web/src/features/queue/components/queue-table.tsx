@@ -4,11 +4,21 @@ import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { DueDate } from "@/components/ui/due-date";
 import { StateBadge } from "@/components/ui/state-badge";
+import { formatAgo } from "@/lib/dates";
+import { formatCount } from "@/lib/format";
 
 const col = createColumnHelper<QueueItem>();
 
-/** My unfinished assignments; each row opens the workspace. */
-export function QueueTable({ items, linkTo }: { items: QueueItem[]; linkTo: (item: QueueItem) => string }) {
+type Props = {
+  items: QueueItem[];
+  linkTo: (item: QueueItem) => string;
+  /** The "Done" list: when each was last changed instead of its due date. */
+  finished?: boolean;
+  caption?: string;
+};
+
+/** My assignments, unfinished (the queue) or finished (the "Done" list); each row opens the workspace. */
+export function QueueTable({ items, linkTo, finished = false, caption = "My queue" }: Props) {
   const columns = [
     col.accessor("documentTitle", {
       header: "Document",
@@ -20,11 +30,13 @@ export function QueueTable({ items, linkTo }: { items: QueueItem[]; linkTo: (ite
     }),
     col.accessor("corpusName", { header: "Corpus" }),
     col.accessor("batchName", { header: "Batch" }),
-    col.accessor("tokenCount", { header: "Words", cell: (c) => c.getValue().toLocaleString("en") }),
-    col.accessor("dueDate", {
-      header: "Due",
-      cell: (c) => <DueDate day={c.getValue()} />,
-    }),
+    col.accessor("tokenCount", { header: "Words", cell: (c) => formatCount(c.getValue()) }),
+    finished
+      ? col.accessor("updatedAt", { id: "finishedAt", header: "Last change", cell: (c) => <span className="whitespace-nowrap text-ink-500">{formatAgo(c.getValue())}</span> })
+      : col.accessor("dueDate", {
+          header: "Due",
+          cell: (c) => <DueDate day={c.getValue()} />,
+        }),
     col.accessor("state", {
       header: "State",
       cell: (c) => (
@@ -36,5 +48,5 @@ export function QueueTable({ items, linkTo }: { items: QueueItem[]; linkTo: (ite
     }),
   ];
   const table = useReactTable({ data: items, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.assignmentId });
-  return <DataTable table={table} flexRender={flexRender} caption="My queue" />;
+  return <DataTable table={table} flexRender={flexRender} caption={caption} />;
 }

@@ -129,7 +129,7 @@ export function UploadPanel({ orgId, corpusId, disabledReason }: { orgId: string
             <ul className="max-h-40 overflow-y-auto rounded border border-ink-100 bg-white px-3 py-2 text-xs text-ink-700" aria-label="Chosen files">
               {chosen.slice(0, 200).map((f, i) => (
                 <li key={`${f.name}-${i}`}>
-                  {f.name} <span className="text-ink-300">{formatBytes(f.size)}</span>
+                  {f.name} <span className="text-ink-500">{formatBytes(f.size)}</span>
                 </li>
               ))}
               {chosen.length > 200 ? <li className="text-ink-500">…and {formatCount(chosen.length - 200)} more</li> : null}

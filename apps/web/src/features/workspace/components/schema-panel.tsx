@@ -25,14 +25,14 @@ export function SchemaPanel({ store, openGuideline, onGuideline }: { store: Anno
               >
                 <span aria-hidden className="size-3.5 shrink-0 rounded-sm" style={{ backgroundColor: t.color }} />
                 <span className="font-medium">{t.name}</span>
-                <span className="ml-auto text-xs text-ink-300 tabular-nums">{counts.get(t.name) ?? 0}</span>
+                <span className="ml-auto text-xs text-ink-500 tabular-nums">{counts.get(t.name) ?? 0}</span>
               </button>
               {t.hotkey ? (
                 <kbd title={`Key ${t.hotkey}`} className="rounded border border-ink-200 bg-ink-50 px-1.5 font-mono text-xs text-ink-700">
                   {t.hotkey}
                 </kbd>
               ) : (
-                <span className="w-6 text-center text-xs text-ink-300" title="No key: use the menu (Enter)">
+                <span className="w-6 text-center text-xs text-ink-500" title="No key: use the menu (Enter)">
                   –
                 </span>
               )}

@@ -1,0 +1,145 @@
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import axe from "axe-core";
+import type { Page } from "playwright-core";
+import { beforeAll, describe, expect, it } from "vitest";
+import { ApiClient, type Person, type Team, setUpTeam, signIn } from "./support/annotation-team";
+import { useBrowser } from "./support/browser";
+
+const session = useBrowser();
+let team: Team;
+let assignmentId = "";
+let batchId = "";
+
+// Screenshots are test artifacts (test-results/ is ignored by git): open them to look at the screens.
+const shots = path.join(path.dirname(fileURLToPath(import.meta.url)), "..", "test-results", "screens");
+const WIDTHS = [1440, 390] as const;
+
+beforeAll(async () => {
+  team = await setUpTeam(session.baseUrl, session.mailUrl, `s${Date.now().toString(36)}`);
+  const [ines] = team.annotators;
+  const batch = await team.api.call<{ id: string }>("POST", `/orgs/${team.orgId}/corpora/${team.corpusId}/batches`, {
+    name: "Quay readings with a rather long name to test how titles wrap",
+    dueDate: "2031-04-30",
+    documentIds: Object.values(team.documents),
+    assignment: { mode: "round_robin", annotatorIds: [ines.userId], annotatorsPerDocument: 1 },
+  });
+  batchId = batch.id;
+  const annotator = new ApiClient(session.baseUrl);
+  await annotator.call("POST", "/auth/sign-in", { email: ines.email, password: ines.password });
+  const queue = await annotator.call<{ items: Array<{ assignmentId: string }> }>("GET", `/orgs/${team.orgId}/queue`);
+  assignmentId = queue.items[0]!.assignmentId;
+  fs.mkdirSync(shots, { recursive: true });
+}, 90_000);
+
+type Visit = { name: string; url: () => string; ready: (page: Page) => Promise<unknown> };
+
+/** Opens a page at a width, recording every console message and page error from the first request on. */
+async function openAt(width: number, who: Person | null) {
+  const { page } = await session.newPage();
+  await page.setViewportSize({ width, height: 860 });
+  const messages: string[] = [];
+  page.on("console", (m) => messages.push(`${m.type()}: ${m.text()}`));
+  page.on("pageerror", (e) => messages.push(`pageerror: ${e.message}`));
+  if (who) await signIn(page, who);
+  return { page, messages };
+}
+
+/** How far the page is wider than the window (0 when nothing scrolls sideways), with the outermost elements that stick out. */
+async function horizontalOverflow(page: Page): Promise<{ by: number; culprits: string[] }> {
+  return page.evaluate(() => {
+    const width = document.documentElement.clientWidth;
+    const out = [...document.body.querySelectorAll<HTMLElement>("*")].filter((el) => el.getBoundingClientRect().right > width + 1);
+    const outermost = out.filter((el) => !out.includes(el.parentElement!));
+    return {
+      by: document.documentElement.scrollWidth - width,
+      culprits: outermost.slice(0, 5).map((el) => `${el.tagName.toLowerCase()}.${el.className}`.slice(0, 120)),
+    };
+  });
+}
+
+/** axe-core's serious and critical findings on the page as it stands. */
+async function seriousViolations(page: Page): Promise<string[]> {
+  // Evaluated over the debugging protocol, so the app's Content-Security-Policy (script-src 'self') stays as it is.
+  await page.evaluate(axe.source);
+  const found = await page.evaluate(async () => {
+    const result = await (window as unknown as { axe: typeof axe }).axe.run(document, { resultTypes: ["violations"] });
+    return result.violations.map((v) => ({ id: v.id, impact: v.impact, nodes: v.nodes.map((n) => n.target.join(" ")).slice(0, 3) }));
+  });
+  return found.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id} (${v.impact}): ${v.nodes.join(", ")}`);
+}
+
+async function checkScreens(who: Person | null, label: string, visits: Visit[]) {
+  for (const width of WIDTHS) {
+    const { page, messages } = await openAt(width, who);
+    for (const v of visits) {
+      await page.goto(v.url());
+      await v.ready(page);
+      // Let late requests (and their console messages) land before judging the page.
+      await page.waitForLoadState("networkidle");
+      await page.screenshot({ path: path.join(shots, `${label}-${v.name}-${width}.png`), fullPage: true });
+      const overflow = await horizontalOverflow(page);
+      expect(overflow.by, `${v.name} at ${width} px scrolls sideways: ${overflow.culprits.join(" | ")}`).toBeLessThanOrEqual(0);
+      if (width === 1440) expect(await seriousViolations(page), `${v.name}: axe`).toEqual([]);
+      expect(messages, `${v.name} at ${width} px: console`).toEqual([]);
+    }
+  }
+}
+
+const org = (rest = "") => `/o/${team.orgId}${rest}`;
+const corpus = (rest = "") => org(`/corpora/${team.corpusId}${rest}`);
+const heading = (name: string | RegExp) => (page: Page) => page.getByRole("heading", { name, level: 1 }).waitFor();
+
+describe("the main screens at 1440 and 390 px", () => {
+  it("the sign-in page: no overflow, no console message (no 401 for the signed-out visitor), no serious axe finding", async () => {
+    await checkScreens(null, "signed-out", [{ name: "sign-in", url: () => "/sign-in", ready: heading("Sign in") }]);
+  });
+
+  it("an admin's screens", async () => {
+    await checkScreens(team.manager, "admin", [
+      { name: "overview", url: () => org(), ready: (p) => p.getByRole("region", { name: "Seats" }).getByText(/seats on the/).waitFor() },
+      { name: "corpora", url: () => org("/corpora"), ready: heading("Corpora") },
+      { name: "documents", url: () => corpus(), ready: (p) => p.getByRole("link", { name: "Harbour log" }).waitFor() },
+      { name: "schema", url: () => corpus("/schema"), ready: (p) => p.getByRole("list", { name: "Entity types" }).getByTitle("PERSON").waitFor() },
+      { name: "uploads", url: () => corpus("/uploads"), ready: (p) => p.getByText("Documents may hold personal data.").waitFor() },
+      { name: "document", url: () => corpus(`/documents/${team.documents["Harbour log"]}`), ready: (p) => p.getByText(/Ostrandel/).first().waitFor() },
+      { name: "batches", url: () => org("/batches"), ready: heading("Batches") },
+      { name: "batch", url: () => corpus(`/batches/${batchId}`), ready: heading(/Quay readings/) },
+      { name: "review", url: () => org("/review"), ready: heading(/Review/) },
+      { name: "members", url: () => org("/members"), ready: (p) => p.getByText("Ines Marrow").first().waitFor() },
+      { name: "audit", url: () => org("/audit"), ready: (p) => p.getByRole("table", { name: "Audit events" }).waitFor() },
+      { name: "billing", url: () => org("/billing"), ready: heading(/Billing/) },
+      { name: "settings", url: () => org("/settings"), ready: heading(/Settings|Organization/) },
+    ]);
+  });
+
+  it("an annotator's screens", async () => {
+    const [ines] = team.annotators;
+    await checkScreens(ines, "annotator", [
+      { name: "overview", url: () => org(), ready: (p) => p.getByRole("region", { name: "My open work" }).getByRole("link", { name: "Harbour log" }).waitFor() },
+      { name: "queue", url: () => org("/queue"), ready: (p) => p.getByRole("link", { name: /^Start next/ }).waitFor() },
+      { name: "workspace", url: () => corpus(`/assignments/${assignmentId}`), ready: (p) => p.getByTestId("document-text").waitFor() },
+    ]);
+  });
+});
+
+describe("what an annotator may not see", () => {
+  it("no corpus gold or uploads: the screens say so and the API answers 403", async () => {
+    const [ines] = team.annotators;
+    const { page, messages } = await openAt(1440, ines);
+    await page.goto(corpus());
+    await page.getByText(/not for your role|annotators|not allowed/i).first().waitFor();
+    expect(await page.getByRole("link", { name: "Harbour log" }).count()).toBe(0);
+    await page.goto(corpus("/uploads"));
+    await page.getByText(/not for your role|annotators|not allowed/i).first().waitFor();
+    expect(await page.getByText("Documents may hold personal data.").count()).toBe(0);
+    for (const p of ["/documents", "/uploads", `/documents/${team.documents["Harbour log"]}`]) {
+      const res = await page.request.get(`/api/orgs/${team.orgId}/corpora/${team.corpusId}${p}`);
+      expect(res.status(), p).toBe(403);
+    }
+    // The navigation offers no corpus browsing to an annotator.
+    expect(await page.getByRole("navigation", { name: "Areas" }).getByRole("link", { name: "Corpora" }).count()).toBe(0);
+    expect(messages).toEqual([]);
+  });
+});
