@@ -6,7 +6,12 @@ import { getSuggesterStatus } from "@/suggestions/suggestions.service";
 import { type TestServer, startTestServer } from "../../test/support/http";
 import { testPayments } from "../../test/support/payments";
 import { startTestWorkers, stopTestWorkers } from "../../test/support/workers";
+import { insertUser } from "@/auth/users.repository";
+import { addMember } from "@/members/members.service";
+import { createOrganizationRecord } from "@/orgs/orgs.service";
 import { DEMO_SEATS } from "./demo-billing";
+import { DEMO_ORGANIZATION } from "./demo-data";
+import { dropDemoOrganization } from "./demo-reset";
 import { buildDemoDocuments } from "./demo-corpus";
 import { seedDemoData } from "./seed";
 
@@ -96,5 +101,22 @@ describe("demo data", () => {
     const again = await seedDemoData();
     expect(again.created).toBe(false);
     expect(await db("documents").where({ organization_id: orgId }).count({ n: "*" }).first()).toEqual({ n: 400 });
+  }, 300_000);
+
+  it("demo reset drops the demo organization and its users only, and the demo loads again", async () => {
+    const other = await db.transaction(async (trx) => {
+      const org = await createOrganizationRecord(DEMO_ORGANIZATION, trx);
+      const user = await insertUser({ email: "someone@elsewhere.test", name: "Ulvra Penmoss", passwordHash: "x", emailVerified: true }, trx);
+      await addMember(org.id, user.id, "admin", trx);
+      return org;
+    });
+    expect(await dropDemoOrganization()).toBe(1);
+    // Another organization that happens to have the demo's name stays, with its member and data.
+    expect(await db("organizations").pluck("id")).toEqual([other.id]);
+    expect(await db("auth_user").pluck("email")).toEqual(["someone@elsewhere.test"]);
+    expect(await db("documents").count({ n: "*" }).first()).toEqual({ n: 0 });
+    const again = await seedDemoData();
+    expect(again.created).toBe(true);
+    expect(await db("organizations").count({ n: "*" }).first()).toEqual({ n: 2 });
   }, 300_000);
 });
