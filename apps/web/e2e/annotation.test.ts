@@ -50,7 +50,7 @@ describe("annotation in the browser", () => {
     await text.waitFor();
     // The schema with keys is on screen, and the suggestion is drawn apart with its confidence.
     await page.getByRole("region", { name: "Entity types" }).getByText("PERSON").waitFor();
-    await page.getByText("PERSON 93%").waitFor();
+    await page.getByTitle("Suggestion: PERSON, 93% confident").waitFor();
 
     // Three spans with the keyboard only: the cursor starts on "Mira".
     await expect(text.evaluate((el) => el === document.activeElement)).resolves.toBe(true);

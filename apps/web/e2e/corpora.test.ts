@@ -50,7 +50,7 @@ describe("corpora, uploads and exports in the browser", () => {
       await page.getByLabel("Key", { exact: true }).fill(key);
       await page.getByLabel("Guideline (Markdown)").fill(guideline);
       await page.getByRole("button", { name: "Add type" }).click();
-      await page.getByRole("list", { name: "Entity types" }).getByText(name, { exact: true }).waitFor();
+      await page.getByRole("list", { name: "Entity types" }).getByTitle(name, { exact: true }).waitFor();
     };
     await addType("PARTY", "p", "People **and** companies that sign.");
     await addType("PLACE", "l", "Towns, harbours, rivers.");

@@ -1,3 +1,4 @@
+import { type RunStatus, runStatusLabels } from "./training";
 import type { InvitationStatus } from "./accounts";
 import type { AssignmentCounts, AssignmentState } from "./annotation";
 import type { FileState } from "./documents";
@@ -79,3 +80,12 @@ function labelsOf<K extends string>(states: Record<K, StateInfo>): Record<K, str
 export function countOf(n: number, singular: string, plural = `${singular}s`): string {
   return `${n.toLocaleString("en")} ${n === 1 ? singular : plural}`;
 }
+
+/** A training run, with the one set of words from `runStatusLabels`. */
+export const runStatusStates: Record<RunStatus, StateInfo> = {
+  queued: { label: runStatusLabels.queued, tone: "idle", hint: "Queued; a worker picks it up soon." },
+  running: { label: runStatusLabels.running, tone: "active", hint: "A worker is training; the stage shows how far it is." },
+  succeeded: { label: runStatusLabels.succeeded, tone: "done", hint: "Finished; its tagger and evaluation are stored." },
+  failed: { label: runStatusLabels.failed, tone: "problem", hint: "Stopped with an error; the run says why." },
+  cancelled: { label: runStatusLabels.cancelled, tone: "waiting", hint: "Cancelled by a data lead; no tagger was stored." },
+};

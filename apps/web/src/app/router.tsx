@@ -2,7 +2,6 @@ import type { ComponentType } from "react";
 import { createBrowserRouter, type RouteObject } from "react-router";
 import { Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
-import { AreaPlaceholder } from "./routes/area-placeholder";
 import { ForgotPasswordRoute } from "./routes/forgot-password";
 import { InvitationRoute } from "./routes/invitation";
 import { MembersRoute } from "./routes/members";
@@ -43,6 +42,12 @@ const orgRoutes: RouteObject[] = [
       { path: "suggester", lazy: screen(() => import("./routes/corpus-suggester"), "CorpusSuggesterRoute") },
       { path: "uncertain", lazy: screen(() => import("./routes/corpus-uncertain"), "CorpusUncertainRoute") },
       { path: "settings", lazy: screen(() => import("./routes/corpus-settings"), "CorpusSettingsRoute") },
+      { path: "training", lazy: screen(() => import("./routes/corpus-training"), "CorpusTrainingRoute") },
+      { path: "training/new", lazy: screen(() => import("./routes/run-new"), "RunNewRoute") },
+      { path: "training/runs/:runId", lazy: screen(() => import("./routes/run"), "RunRoute") },
+      { path: "training/taggers/:taggerId", lazy: screen(() => import("./routes/tagger"), "TaggerRoute") },
+      { path: "training/taggers/:taggerId/compare/:otherId", lazy: screen(() => import("./routes/compare"), "CompareRoute") },
+      { path: "training/taggers/:taggerId/compare/:otherId/documents/:documentId", lazy: screen(() => import("./routes/compare-document"), "CompareDocumentRoute") },
     ],
   },
   { path: "corpora/:corpusId/documents/:documentId", lazy: screen(() => import("./routes/document"), "DocumentRoute") },
@@ -53,7 +58,7 @@ const orgRoutes: RouteObject[] = [
   { path: "corpora/:corpusId/assignments/:assignmentId", lazy: screen(() => import("./routes/assignment"), "AssignmentRoute") },
   { path: "corpora/:corpusId/batches/:batchId", lazy: screen(() => import("./routes/batch-detail"), "BatchDetailRoute") },
   { path: "corpora/:corpusId/batches/:batchId/review/:documentId", lazy: screen(() => import("./routes/review-document"), "ReviewDocumentRoute") },
-  { path: "taggers/*", element: <AreaPlaceholder title="Taggers" what="Training runs and taggers arrive with the training work." /> },
+  { path: "taggers", lazy: screen(() => import("./routes/taggers"), "TaggersRoute") },
   { path: "billing", lazy: screen(() => import("./routes/billing"), "BillingRoute") },
 ];
 

@@ -17,6 +17,25 @@ export const paths = {
     corpusUploads: { path: "/o/:orgId/corpora/:corpusId/uploads", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/uploads` },
     corpusSuggester: { path: "/o/:orgId/corpora/:corpusId/suggester", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/suggester` },
     corpusUncertain: { path: "/o/:orgId/corpora/:corpusId/uncertain", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/uncertain` },
+    corpusTraining: { path: "/o/:orgId/corpora/:corpusId/training", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/training` },
+    newRun: { path: "/o/:orgId/corpora/:corpusId/training/new", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/training/new` },
+    run: {
+      path: "/o/:orgId/corpora/:corpusId/training/runs/:runId",
+      build: (orgId: string, corpusId: string, runId: string) => `/o/${orgId}/corpora/${corpusId}/training/runs/${runId}`,
+    },
+    tagger: {
+      path: "/o/:orgId/corpora/:corpusId/training/taggers/:taggerId",
+      build: (orgId: string, corpusId: string, taggerId: string) => `/o/${orgId}/corpora/${corpusId}/training/taggers/${taggerId}`,
+    },
+    compare: {
+      path: "/o/:orgId/corpora/:corpusId/training/taggers/:taggerId/compare/:otherId",
+      build: (orgId: string, corpusId: string, taggerId: string, otherId: string) => `/o/${orgId}/corpora/${corpusId}/training/taggers/${taggerId}/compare/${otherId}`,
+    },
+    compareDocument: {
+      path: "/o/:orgId/corpora/:corpusId/training/taggers/:taggerId/compare/:otherId/documents/:documentId",
+      build: (orgId: string, corpusId: string, taggerId: string, otherId: string, documentId: string) =>
+        `/o/${orgId}/corpora/${corpusId}/training/taggers/${taggerId}/compare/${otherId}/documents/${documentId}`,
+    },
     corpusSettings: { path: "/o/:orgId/corpora/:corpusId/settings", build: (orgId: string, corpusId: string) => `/o/${orgId}/corpora/${corpusId}/settings` },
     document: {
       path: "/o/:orgId/corpora/:corpusId/documents/:documentId",

@@ -28,6 +28,7 @@ export function CorpusLayoutRoute() {
     { label: data ? "Entity schema" : "Entity schema and guidelines", to: paths.org.corpusSchema.build(orgId, corpusId) },
     ...(data ? [{ label: "Uploads", to: paths.org.corpusUploads.build(orgId, corpusId) }] : []),
     ...(data ? [{ label: "Suggester", to: paths.org.corpusSuggester.build(orgId, corpusId) }] : []),
+    ...(can(org.role, "viewTraining") ? [{ label: "Training", to: paths.org.corpusTraining.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageBatches") || can(org.role, "train") ? [{ label: "Most uncertain", to: paths.org.corpusUncertain.build(orgId, corpusId) }] : []),
     ...(can(org.role, "manageCorpora") ? [{ label: "Settings", to: paths.org.corpusSettings.build(orgId, corpusId) }] : []),
   ];
@@ -55,14 +56,14 @@ export function CorpusLayoutRoute() {
         }
         actions={can(org.role, "exportData") ? <ExportButtons orgId={orgId} corpusId={corpusId} goldCount={c.statuses.gold} /> : null}
       />
-      <nav aria-label="Corpus" className="flex gap-1 border-b border-ink-100">
+      <nav aria-label="Corpus" className="flex gap-1 overflow-x-auto border-b border-ink-100">
         {tabs.map((t) => (
           <NavLink
             key={t.label}
             to={t.to}
             end={t.end}
             className={({ isActive }) =>
-              cn("-mb-px border-b-2 border-transparent px-3 py-2 text-sm text-ink-500 hover:text-ink-800", isActive && "border-thread-500 font-medium text-ink-900")
+              cn("-mb-px shrink-0 border-b-2 border-transparent px-3 py-2 text-sm text-ink-500 hover:text-ink-800", isActive && "border-thread-500 font-medium text-ink-900")
             }
           >
             {t.label}

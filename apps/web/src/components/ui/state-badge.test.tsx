@@ -9,7 +9,7 @@ import { StateBadge } from "./state-badge";
 describe("state labels come from one table in the contracts", () => {
   it("a badge shows the contract's label, a hint and a mark besides colour", () => {
     render(<StateBadge state={assignmentStateStates.open} />);
-    const badge = screen.getByText("Not started");
+    const badge = screen.getByText("Not started").parentElement!;
     expect(badge).toHaveAttribute("title", assignmentStateStates.open.hint);
     expect(badge.querySelector("[aria-hidden]")?.textContent).toBeTruthy();
   });

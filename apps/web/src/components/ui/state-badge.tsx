@@ -20,8 +20,10 @@ export function StateBadge({ state, prefix, className }: { state: StateInfo; pre
       <span aria-hidden className="text-[10px] leading-none">
         {marks[state.tone]}
       </span>
-      {prefix ? `${prefix}: ` : null}
-      {state.label}
+      <span>
+        {prefix ? `${prefix}: ` : null}
+        {state.label}
+      </span>
     </span>
   );
 }

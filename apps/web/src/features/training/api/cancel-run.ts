@@ -1,0 +1,13 @@
+import type { TrainingRun } from "@tagloom/contracts";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import { corpusApi, runsKey } from "./keys";
+
+export function useCancelRun(orgId: string, corpusId: string, runId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post<TrainingRun>(`${corpusApi(orgId, corpusId)}/runs/${runId}/cancel`),
+    onSuccess: (run) => qc.setQueryData([...runsKey(orgId, corpusId), runId], run),
+    onSettled: () => qc.invalidateQueries({ queryKey: runsKey(orgId, corpusId) }),
+  });
+}

@@ -1,0 +1,65 @@
+import { trainingConfigDefaults } from "@tagloom/contracts";
+import { configure, screen } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { describe, expect, it, vi } from "vitest";
+import { ApiError } from "@/lib/api-client";
+import { renderWithProviders } from "@/testing/test-utils";
+import { RunForm, defaultRunFormValues, errorsFromApi, toRunInput } from "./run-form";
+
+configure({ asyncUtilTimeout: 5000 });
+
+describe("the training-run form", () => {
+  it("starts at the engine's defaults, says so, and sends them unchanged", async () => {
+    const onSubmit = vi.fn().mockResolvedValue(null);
+    renderWithProviders(<RunForm onSubmit={onSubmit} busy={false} />);
+    expect(screen.getByLabelText("λ for emissions")).toHaveValue(String(trainingConfigDefaults.smoothing.emission));
+    expect(screen.getAllByText("Default.").length).toBeGreaterThan(10);
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    const sent = onSubmit.mock.calls[0]![0];
+    // What the form sends for untouched fields is exactly the defaults table of the contracts.
+    expect(sent).toMatchObject({
+      smoothing: trainingConfigDefaults.smoothing,
+      positionBuckets: trainingConfigDefaults.positionBuckets,
+      rare: trainingConfigDefaults.rare,
+      wordClasses: trainingConfigDefaults.wordClasses,
+      order: trainingConfigDefaults.order,
+      crossValidationFolds: trainingConfigDefaults.crossValidationFolds,
+      semi: trainingConfigDefaults.semi,
+      testSplit: trainingConfigDefaults.testSplit,
+      seed: trainingConfigDefaults.seed,
+    });
+  });
+
+  it("refuses a bad value with the shared schema's words and sends nothing", async () => {
+    const onSubmit = vi.fn();
+    renderWithProviders(<RunForm onSubmit={onSubmit} busy={false} />);
+    const emission = screen.getByLabelText("λ for emissions");
+    await userEvent.clear(emission);
+    await userEvent.type(emission, "-1");
+    expect(screen.getByText(/Changed; default 0.01/)).toBeInTheDocument();
+    await userEvent.clear(screen.getByLabelText("Token-position boundaries"));
+    await userEvent.type(screen.getByLabelText("Token-position boundaries"), "4, 2");
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    expect(screen.getByText("Use a value of 0 or more.")).toBeInTheDocument();
+    expect(screen.getByText("Boundaries must increase, e.g. 1, 2, 4.")).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it("refuses learning from unlabelled documents with model order 2, on the right field", () => {
+    const r = toRunInput({ ...defaultRunFormValues, order: "2", semi: "em" });
+    expect(r.errors).toEqual({ semi: "Learning from unlabelled documents needs model order 1." });
+  });
+
+  it("puts the API's field details on their fields and shows a refusal in words", async () => {
+    const onSubmit = vi
+      .fn()
+      .mockResolvedValueOnce(errorsFromApi(new ApiError(400, "validation_failed", "The request is not valid.", { fields: { "testSplit.percent": ["Hold out at most 90 %."] } })))
+      .mockResolvedValueOnce(errorsFromApi(new ApiError(409, "empty_test_split", "The test split has no gold documents: mark some gold documents as test, or hold out a share.")));
+    renderWithProviders(<RunForm onSubmit={onSubmit} busy={false} />);
+    await userEvent.click(screen.getByRole("radio", { name: /random hold-out/ }));
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    expect(await screen.findByText("Hold out at most 90 %.")).toBeInTheDocument();
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    expect(await screen.findByText(/The test split has no gold documents/)).toBeInTheDocument();
+  });
+});
