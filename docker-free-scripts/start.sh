@@ -43,8 +43,6 @@ export UPLOAD_DIR="$DATA_DIR/uploads"
 
 say "migrating the database"
 (cd "$ROOT/apps/api" && "$ROOT/node_modules/.bin/tsx" src/db/migrate-cli.ts latest) || fail "migrations failed"
-say "loading demo data (once)"
-(cd "$ROOT/apps/api" && "$ROOT/node_modules/.bin/tsx" src/seed/seed-cli.ts) || fail "demo data failed to load"
 say "building the web app"
 (cd "$ROOT/apps/web" && node scripts/copy-fonts.mjs && "$ROOT/apps/web/node_modules/.bin/vite" build --logLevel warn) || fail "web build failed"
 
@@ -52,15 +50,26 @@ mkdir -p "$RUN_DIR"
 nohup setsid node "$ROOT/docker-free-scripts/lib/supervise.mjs" >>"$LOG_FILE" 2>&1 < /dev/null &
 echo $! > "$PID_FILE"
 
+up=0
 for _ in $(seq 1 120); do
   if node -e 'fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))' "http://127.0.0.1:$PORT/api/health"; then
-    say "Tagloom is running at http://127.0.0.1:$PORT"
-    say "demo sign-in: admin@demo.tagloom.test / demo-password-1 (more demo users in the README)"
-    say "e-mails sent by the app: http://127.0.0.1:$PORT/dev/outbox   logs: $LOG_FILE   stop: npm stop"
-    exit 0
+    up=1; break
   fi
   if ! kill -0 "$(cat "$PID_FILE")" 2>/dev/null; then break; fi
   sleep 0.5
 done
-tail -n 40 "$LOG_FILE" >&2 || true
-fail "Tagloom did not answer on http://127.0.0.1:$PORT/api/health; see $LOG_FILE"
+if [ "$up" != 1 ]; then
+  tail -n 40 "$LOG_FILE" >&2 || true
+  fail "Tagloom did not answer on http://127.0.0.1:$PORT/api/health; see $LOG_FILE"
+fi
+
+# The demo loads with the product running: its seats are bought on the payments fake (whose
+# webhooks reach the API) and its taggers are trained by the worker.
+say "loading demo data (once; the first time trains two taggers, a few minutes)"
+SEED_OUT="$(cd "$ROOT/apps/api" && "$ROOT/node_modules/.bin/tsx" src/seed/seed-cli.ts)" || fail "demo data failed to load (npm run demo:reset starts it over)"
+printf '%s\n' "$SEED_OUT" | grep -v '^DEMO_' || true
+
+say "Tagloom is running at http://127.0.0.1:$PORT"
+say "demo sign-in: admin@demo.tagloom.test / demo-password-1 (more demo users in the README)"
+say "e-mails sent by the app: http://127.0.0.1:$PORT/dev/outbox   logs: $LOG_FILE   stop: npm stop"
+print_demo_token "$SEED_OUT"

@@ -36,3 +36,18 @@ bootstrap_dependencies() {
   say "installing dependencies (pnpm $PNPM_VERSION)"
   (cd "$ROOT" && pnpm_run install --frozen-lockfile --reporter=silent) || fail "dependency install failed"
 }
+
+# Prints the demo API token from the seed's output (only on the run that created it) with a
+# ready curl call of the tagging API; prints a hint otherwise.
+print_demo_token() {
+  local out="$1" token corpus
+  token="$(printf '%s\n' "$out" | sed -n 's/^DEMO_API_TOKEN=//p')"
+  corpus="$(printf '%s\n' "$out" | sed -n 's/^DEMO_CORPUS_ID=//p')"
+  if [ -z "$token" ]; then
+    say "the demo API token was printed when the demo was first loaded; admins create new ones under API tokens"
+    return 0
+  fi
+  say "demo API token (shown only now; keep it): $token"
+  say "try the tagging API:"
+  printf "  curl -s -X POST http://127.0.0.1:%s/api/v1/corpora/%s/tag \\\\\n    -H 'Authorization: Bearer %s' -H 'Content-Type: application/json' \\\\\n    -d '{\"text\": \"Orvel Castrane of Brindlewick Freight signed the order for Sallowmere.\"}'\n" "$PORT" "$corpus" "$token"
+}

@@ -15,9 +15,12 @@ import { processFileGroup } from "@/uploads/process-files";
 import type { ReceivedFile } from "@/uploads/upload-storage";
 import { receiveUpload } from "@/uploads/uploads.service";
 import { simulateAnnotator } from "./demo-annotators";
+import { seedBilling } from "./demo-billing";
 import { buildDemoDocuments, demoEntityTypes, type DemoDocument } from "./demo-corpus";
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, demoUsers } from "./demo-data";
 import { buildDemoDocx, buildDemoPdf } from "./demo-files";
+import { seedTaggers } from "./demo-taggers";
+import { seedApiToken } from "./demo-token";
 
 type Person = Actor & { userId: string; name: string };
 type DemoContext = { organizationId: string; corpusId: string; people: Record<string, Person>; docs: DemoDocument[]; idsByTitle: Map<string, string> };
@@ -25,13 +28,21 @@ type DemoContext = { organizationId: string; corpusId: string; people: Record<st
 const DAY = 86_400_000;
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY).toISOString().slice(0, 10);
 
+export type SeedResult =
+  | { created: false; organizationId: null }
+  | { created: true; organizationId: string; corpusId: string; suggesterId: string; apiToken: string };
+
 /**
  * Loads the demo organization once: seven members in four roles, a corpus of 400 invented supply
  * documents (a quarter gold with a test split, some uploaded as generated PDF and Word files), a
- * batch under review with two annotators' disagreements and a batch in progress. Later runs
- * change nothing.
+ * batch under review with two annotators' disagreements and a batch in progress, eight paid seats
+ * with a paid invoice, two trained taggers (the better one the suggester, its suggestions on the
+ * open documents) and an API token whose secret is returned once. Later runs change nothing.
+ *
+ * It needs the product running beside it: the payments fake and the API (for the payments
+ * webhooks) and a worker (for the training and suggestion jobs), as `npm start` arranges.
  */
-export async function seedDemoData(): Promise<{ created: boolean; organizationId: string | null }> {
+export async function seedDemoData(): Promise<SeedResult> {
   const first = demoUsers[0]!;
   if (await getUserByEmail(first.email)) return { created: false, organizationId: null };
   const passwordHash = await hashPassword(DEMO_PASSWORD);
@@ -48,7 +59,10 @@ export async function seedDemoData(): Promise<{ created: boolean; organizationId
   const ctx = await seedCorpus(organizationId, people);
   await seedReviewBatch(ctx);
   await seedBatchInProgress(ctx);
-  return { created: true, organizationId };
+  await seedBilling(organizationId, people.admin!);
+  const { suggesterId } = await seedTaggers(organizationId, ctx.corpusId, people.lead!);
+  const apiToken = await seedApiToken(organizationId, people.admin!);
+  return { created: true, organizationId, corpusId: ctx.corpusId, suggesterId, apiToken };
 }
 
 async function seedCorpus(organizationId: string, people: Record<string, Person>): Promise<DemoContext> {

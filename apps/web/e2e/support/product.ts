@@ -9,7 +9,15 @@ const webDir = path.resolve(import.meta.dirname, "../..");
 const apiDir = path.resolve(webDir, "../api");
 const tsx = path.join(apiDir, "node_modules/.bin/tsx");
 
-export type Product = { baseUrl: string; mailUrl: string; paymentsUrl: string; stop: () => Promise<void> };
+export type Product = {
+  baseUrl: string;
+  mailUrl: string;
+  paymentsUrl: string;
+  /** With `demo`: the demo API token's secret and the demo corpus (printed once by the seed). */
+  demoToken?: string | null;
+  demoCorpusId?: string | null;
+  stop: () => Promise<void>;
+};
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -87,10 +95,6 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
     };
     const migrate = spawnSync(tsx, ["src/db/migrate-cli.ts", "latest"], { cwd: apiDir, env, encoding: "utf8" });
     if (migrate.status !== 0) throw new Error(`migrations failed: ${migrate.stderr}${migrate.stdout}`);
-    if (options.demo) {
-      const seed = spawnSync(tsx, ["src/seed/seed-cli.ts"], { cwd: apiDir, env, encoding: "utf8" });
-      if (seed.status !== 0) throw new Error(`demo data failed: ${seed.stderr}${seed.stdout}`);
-    }
     let output = "";
     const spawnApp = (entry: string) => {
       const child = spawn(tsx, [entry], { cwd: apiDir, env, stdio: ["ignore", "pipe", "pipe"] });
@@ -102,11 +106,23 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
     const api = spawnApp("src/server.ts");
     spawnApp("src/worker.ts");
     await waitForHealth(baseUrl, api, () => output);
+    // The demo loads beside the running product, as in npm start: its seats are paid on the
+    // payments fake (webhooks to the API) and its taggers are trained by the worker.
+    let demoToken: string | null = null;
+    let demoCorpusId: string | null = null;
+    if (options.demo) {
+      const seed = spawnSync(tsx, ["src/seed/seed-cli.ts"], { cwd: apiDir, env, encoding: "utf8", timeout: 600_000 });
+      if (seed.status !== 0) throw new Error(`demo data failed: ${seed.stderr}${seed.stdout}`);
+      demoToken = /^DEMO_API_TOKEN=(.+)$/m.exec(seed.stdout)?.[1] ?? null;
+      demoCorpusId = /^DEMO_CORPUS_ID=(.+)$/m.exec(seed.stdout)?.[1] ?? null;
+    }
     const started = { pg, mail, payments };
     return {
       baseUrl,
       mailUrl: mail.httpUrl,
       paymentsUrl: payments.url,
+      demoToken,
+      demoCorpusId,
       stop: async () => {
         await Promise.all(children.map(stopChild));
         await started.mail.stop();
