@@ -45,6 +45,23 @@ async function waitForHealth(url: string, child: ChildProcess, log: () => string
   throw new Error(`the API did not become healthy within ${timeoutMs} ms:\n${log()}`);
 }
 
+/** Runs a command to its end without blocking this process's event loop. */
+function runToEnd(cmd: string, args: string[], options: { cwd: string; env: NodeJS.ProcessEnv }, timeoutMs: number): Promise<{ status: number | null; stdout: string; stderr: string }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(cmd, args, { ...options, stdio: ["ignore", "pipe", "pipe"] });
+    let stdout = "";
+    let stderr = "";
+    child.stdout.on("data", (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on("data", (d: Buffer) => (stderr += d.toString()));
+    const timer = setTimeout(() => child.kill("SIGKILL"), timeoutMs);
+    child.on("error", reject);
+    child.on("close", (status) => {
+      clearTimeout(timer);
+      resolve({ status, stdout, stderr });
+    });
+  });
+}
+
 function stopChild(child: ChildProcess): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return Promise.resolve();
   return new Promise((resolve) => {
@@ -111,7 +128,8 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
     let demoToken: string | null = null;
     let demoCorpusId: string | null = null;
     if (options.demo) {
-      const seed = spawnSync(tsx, ["src/seed/seed-cli.ts"], { cwd: apiDir, env, encoding: "utf8", timeout: 600_000 });
+      // Not spawnSync: the payments fake and the mail catcher live in this process and must answer.
+      const seed = await runToEnd(tsx, ["src/seed/seed-cli.ts"], { cwd: apiDir, env }, 600_000);
       if (seed.status !== 0) throw new Error(`demo data failed: ${seed.stderr}${seed.stdout}`);
       demoToken = /^DEMO_API_TOKEN=(.+)$/m.exec(seed.stdout)?.[1] ?? null;
       demoCorpusId = /^DEMO_CORPUS_ID=(.+)$/m.exec(seed.stdout)?.[1] ?? null;
