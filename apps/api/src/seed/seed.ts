@@ -1,3 +1,4 @@
+import { waitFor } from "./demo-wait";
 import { createRng } from "@tagloom/tagger";
 import type { Actor } from "@/audit/audit.service";
 import { hashPassword } from "@/auth/passwords";
@@ -11,7 +12,6 @@ import { createEntityType } from "@/corpora/entity-types.service";
 import { db } from "@/db/knex";
 import { addMember } from "@/members/members.service";
 import { createOrganizationRecord } from "@/orgs/orgs.service";
-import { processFileGroup } from "@/uploads/process-files";
 import type { ReceivedFile } from "@/uploads/upload-storage";
 import { receiveUpload } from "@/uploads/uploads.service";
 import { simulateAnnotator } from "./demo-annotators";
@@ -87,9 +87,16 @@ async function seedCorpus(organizationId: string, people: Record<string, Person>
     files.push({ originalname: `${name}.${d.format}`, size: buffer.length, buffer, oversized: false });
   }
   const result = await receiveUpload(organizationId, corpus.id, { spanMode: "gold" }, files, manager);
-  // Process the files now (the queued job then finds them done) so the batches below can use them.
-  const queued = result.files.filter((f) => f.state === "queued").map((f) => f.id);
-  if (queued.length) await processFileGroup({ organizationId, corpusId: corpus.id, uploadId: result.upload.id, fileIds: queued });
+  // The running workers read the files (the demo loads beside the running product); reading them
+  // here as well would race the worker for the same files. Wait until every file is read.
+  await waitFor(
+    "the demo files to be read",
+    async () => {
+      const open = await db("upload_files").where({ organization_id: organizationId, upload_id: result.upload.id }).whereIn("state", ["queued", "processing"]).count({ n: "*" }).first();
+      return Number(open?.n ?? 0) === 0 ? true : null;
+    },
+    120_000,
+  );
 
   const rows: { id: string; title: string }[] = await db("documents").where({ organization_id: organizationId, corpus_id: corpus.id }).select("id", "title");
   const idsByTitle = new Map(rows.map((r) => [r.title, r.id]));

@@ -15,7 +15,7 @@ export const navSections: { title: string; items: NavItem[] }[] = [
       { area: "corpora", label: "Guidelines", to: paths.org.corpora.build, roles: ["annotator"] },
       { area: "batches", label: "Batches", to: paths.org.batches.build, ability: "manageBatches" },
       { area: "review", label: "Review", to: paths.org.review.build, ability: "review" },
-      { area: "taggers", label: "Taggers", to: paths.org.taggers.build, ability: "train" },
+      { area: "taggers", label: "Taggers", to: paths.org.taggers.build, ability: "viewTraining" },
     ],
   },
   {
