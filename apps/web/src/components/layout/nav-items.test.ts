@@ -11,6 +11,8 @@ describe("areaOf", () => {
     expect(areaOf(`${o}/corpora/c1/documents/d1`)).toBe("corpora");
     expect(areaOf(`${o}/corpora/c1/schema`)).toBe("corpora");
     expect(areaOf(`${o}/batches/new`)).toBe("batches");
+    expect(areaOf(`${o}/corpora/c1/training`)).toBe("taggers");
+    expect(areaOf(`${o}/corpora/c1/training/taggers/t1/compare/t2`)).toBe("taggers");
     expect(areaOf(o)).toBe("overview");
     expect(areaOf(`${o}/`)).toBe("overview");
   });

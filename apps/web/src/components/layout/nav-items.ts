@@ -40,6 +40,7 @@ export function areaOf(pathname: string, search = ""): NavArea {
   if (rest === "" || rest === "/") return "overview";
   if (/^\/corpora\/[^/]+\/batches\/[^/]+\/review\//.test(rest)) return "review";
   if (/^\/corpora\/[^/]+\/batches\//.test(rest)) return "batches";
+  if (/^\/corpora\/[^/]+\/training(\/|$)/.test(rest)) return "taggers";
   if (/^\/corpora\/[^/]+\/assignments\//.test(rest)) return new URLSearchParams(search).get("from") === "review" ? "review" : "queue";
   const first = rest.split("/")[1] ?? "";
   const areas: Record<string, NavArea> = { queue: "queue", corpora: "corpora", batches: "batches", review: "review", taggers: "taggers", members: "members", audit: "audit", billing: "billing", tokens: "tokens", settings: "settings" };
