@@ -31,7 +31,7 @@ describe("tagger CLI", () => {
     const train = run(["train", "--train", "train.bio", "--out", "model.json", "--rare", "0"], { cwd: dir });
     expect(train.stderr).toBe("");
     expect(train.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(2);
+    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(3);
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
@@ -140,10 +140,10 @@ describe("tagger CLI", () => {
     const broken = run(["tag", "--model", "broken.json"], { cwd: dir, input: "a\n" });
     expect(broken.code).toBe(2);
     expect(broken.stderr).toMatch(/^broken\.json:3: invalid JSON/);
-    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 3 }));
+    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 99 }));
     const future = run(["tag", "--model", "future.json"], { cwd: dir, input: "a\n" });
     expect(future.code).toBe(2);
-    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 3/);
+    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 99/);
   });
 
   it("rejects bad options with usage and exit code 2", () => {

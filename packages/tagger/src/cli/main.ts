@@ -35,7 +35,7 @@ training options:
   --position-buckets LIST|none   token boundaries "1,2,4" or "token:1,2/sentence:1"
   --position-strength β          pull of each bucket toward the position-free estimate
   --rare N                       words seen ≤ N times are modelled by their word class
-  --word-classes none|bikel|extended
+  --word-classes none|bikel|extended|informal
   --lowercase-first-word on|off  read an unknown sentence-initial word as its lower-case form
   --suffix-length N              longest suffix for unknown words (0 = off)
   --suffix-theta θ|brants        successive-abstraction weight
@@ -140,7 +140,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   }
   if (values["position-strength"] !== undefined) config.positionStrength = number("position-strength", values["position-strength"], (n) => n >= 0, "a number ≥ 0");
   if (values.rare !== undefined) config.rare = number("rare", values.rare, (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
-  if (values["word-classes"] !== undefined) config.wordClasses = choice("word-classes", values["word-classes"], ["none", "bikel", "extended"] as const);
+  if (values["word-classes"] !== undefined) config.wordClasses = choice("word-classes", values["word-classes"], ["none", "bikel", "extended", "informal"] as const);
   const lowercaseFirstWord = onOff("lowercase-first-word", values["lowercase-first-word"]);
   if (lowercaseFirstWord !== undefined) config.lowercaseFirstWord = lowercaseFirstWord;
   if (values["suffix-length"] !== undefined) config.suffixLength = number("suffix-length", values["suffix-length"], (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
