@@ -66,7 +66,7 @@ describe("tagger CLI", () => {
     const result = run(["evaluate", "--train", "train.bio", "--test", "test.bio", "--json"], { cwd: dir });
     expect(result.code).toBe(0);
     const json = JSON.parse(result.stdout);
-    expect(Object.keys(json)).toEqual(["overall", "types", "tokenAccuracy", "tokens", "sentences", "trainSeconds", "tagSeconds", "tagTokensPerSecond"]);
+    expect(Object.keys(json)).toEqual(["overall", "types", "tokenAccuracy", "tokens", "sentences", "trainSeconds", "tagSeconds", "tagTokensPerSecond", "spanCalibrationError"]);
     expect(Object.keys(json.overall)).toEqual(["precision", "recall", "f1"]);
     expect(Object.keys(json.types.PER)).toEqual(["precision", "recall", "f1", "support"]);
     expect(json.tokens).toBe(20);
@@ -76,6 +76,10 @@ describe("tagger CLI", () => {
     expect(json.overall).toEqual({ precision: 1, recall: 1, f1: 1 });
     expect(json.types).toEqual({ LOC: { precision: 1, recall: 1, f1: 1, support: 3 }, ORG: { precision: 1, recall: 1, f1: 1, support: 1 }, PER: { precision: 1, recall: 1, f1: 1, support: 2 } });
     expect(json.tokenAccuracy).toBe(1);
+    // Every one of the 6 gold spans is predicted; ECE (10 bins) is a fraction.
+    expect(json.spanCalibrationError.spans).toBe(6);
+    expect(json.spanCalibrationError.ece).toBeGreaterThanOrEqual(0);
+    expect(json.spanCalibrationError.ece).toBeLessThanOrEqual(1);
 
     // The CLI prints figures rounded to 6 decimals. The same words with two gold tags changed, scored with the saved model, whose tags are still
     // those of training: gold "Quorvel Corp" shrinks to "Quorvel" (B-ORG O) and "1990" becomes
@@ -121,6 +125,7 @@ describe("tagger CLI", () => {
     expect(json.overall).toBeNull();
     expect(json.types).toBeNull();
     expect(json.tokenAccuracy).toBe(1);
+    expect(json.spanCalibrationError).toBeNull();
   });
 
   it("exits 2 with file:line: reason on malformed input and writes nothing to --out", () => {
