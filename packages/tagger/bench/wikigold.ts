@@ -62,7 +62,8 @@ export function wikigoldReport(directory: string, configurations: Array<{ name: 
 
 /** The configurations the report compares (each differs from the default in one respect unless named otherwise). */
 export const WIKIGOLD_CONFIGURATIONS: Array<{ name: string; config: Partial<TrainingConfig> }> = [
-  { name: "default (extended classes, suffixes, previous-word, context emissions)", config: {} },
+  { name: "default (informal classes, suffixes, previous-word, context emissions)", config: {} },
+  { name: "word classes: extended (no informal-text classes)", config: { wordClasses: "extended" } },
   { name: "first-order, word classes only (no prev-word, no context emissions)", config: { prevWord: false, contextEmissions: false } },
   { name: "word classes: bikel", config: { wordClasses: "bikel" } },
   { name: "word classes: none (one unknown-word symbol)", config: { wordClasses: "none" } },

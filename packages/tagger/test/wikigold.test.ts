@@ -6,7 +6,7 @@
  * by the benchmark (bench/run.ts), not asserted here.
  */
 import { spawnSync } from "node:child_process";
-import { readFileSync } from "node:fs";
+import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
@@ -16,7 +16,10 @@ import { loadModel, serializeModel } from "../src/model/serialize";
 import { tagDocument, tagSentence, trainTagger } from "../src/model/tagger";
 import { documentUncertainty } from "../src/model/uncertainty";
 
-const data = fileURLToPath(new URL("../../../../shared/data/wikigold/", import.meta.url));
+// The repository's parent holds shared/ (a worktree one level deeper: its grandparent).
+const data = ["../../../../shared/data/wikigold/", "../../../../../shared/data/wikigold/"]
+  .map((relative) => fileURLToPath(new URL(relative, import.meta.url)))
+  .find((directory) => existsSync(join(directory, "train.bio"))) ?? fileURLToPath(new URL("../../../../shared/data/wikigold/", import.meta.url));
 const read = (file: string) => parseColumnText(readFileSync(data + file, "utf8"), { file }).documents;
 
 describe("wikigold whole-corpus checks", () => {

@@ -31,7 +31,7 @@ describe("tagger CLI", () => {
     const train = run(["train", "--train", "train.bio", "--out", "model.json", "--rare", "0"], { cwd: dir });
     expect(train.stderr).toBe("");
     expect(train.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(2);
+    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(3);
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
@@ -66,7 +66,7 @@ describe("tagger CLI", () => {
     const result = run(["evaluate", "--train", "train.bio", "--test", "test.bio", "--json"], { cwd: dir });
     expect(result.code).toBe(0);
     const json = JSON.parse(result.stdout);
-    expect(Object.keys(json)).toEqual(["overall", "types", "tokenAccuracy", "tokens", "sentences", "trainSeconds", "tagSeconds", "tagTokensPerSecond"]);
+    expect(Object.keys(json)).toEqual(["overall", "types", "tokenAccuracy", "tokens", "sentences", "trainSeconds", "tagSeconds", "tagTokensPerSecond", "spanCalibrationError"]);
     expect(Object.keys(json.overall)).toEqual(["precision", "recall", "f1"]);
     expect(Object.keys(json.types.PER)).toEqual(["precision", "recall", "f1", "support"]);
     expect(json.tokens).toBe(20);
@@ -76,6 +76,10 @@ describe("tagger CLI", () => {
     expect(json.overall).toEqual({ precision: 1, recall: 1, f1: 1 });
     expect(json.types).toEqual({ LOC: { precision: 1, recall: 1, f1: 1, support: 3 }, ORG: { precision: 1, recall: 1, f1: 1, support: 1 }, PER: { precision: 1, recall: 1, f1: 1, support: 2 } });
     expect(json.tokenAccuracy).toBe(1);
+    // Every one of the 6 gold spans is predicted; ECE (10 bins) is a fraction.
+    expect(json.spanCalibrationError.spans).toBe(6);
+    expect(json.spanCalibrationError.ece).toBeGreaterThanOrEqual(0);
+    expect(json.spanCalibrationError.ece).toBeLessThanOrEqual(1);
 
     // The CLI prints figures rounded to 6 decimals. The same words with two gold tags changed, scored with the saved model, whose tags are still
     // those of training: gold "Quorvel Corp" shrinks to "Quorvel" (B-ORG O) and "1990" becomes
@@ -121,6 +125,7 @@ describe("tagger CLI", () => {
     expect(json.overall).toBeNull();
     expect(json.types).toBeNull();
     expect(json.tokenAccuracy).toBe(1);
+    expect(json.spanCalibrationError).toBeNull();
   });
 
   it("exits 2 with file:line: reason on malformed input and writes nothing to --out", () => {
@@ -140,10 +145,10 @@ describe("tagger CLI", () => {
     const broken = run(["tag", "--model", "broken.json"], { cwd: dir, input: "a\n" });
     expect(broken.code).toBe(2);
     expect(broken.stderr).toMatch(/^broken\.json:3: invalid JSON/);
-    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 3 }));
+    writeFileSync(join(dir, "future.json"), JSON.stringify({ ...JSON.parse(readFileSync(join(dir, "model.json"), "utf8")), schemaVersion: 99 }));
     const future = run(["tag", "--model", "future.json"], { cwd: dir, input: "a\n" });
     expect(future.code).toBe(2);
-    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 3/);
+    expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 99/);
   });
 
   it("rejects bad options with usage and exit code 2", () => {

@@ -35,7 +35,7 @@ training options:
   --position-buckets LIST|none   token boundaries "1,2,4" or "token:1,2/sentence:1"
   --position-strength β          pull of each bucket toward the position-free estimate
   --rare N                       words seen ≤ N times are modelled by their word class
-  --word-classes none|bikel|extended
+  --word-classes none|bikel|extended|informal
   --lowercase-first-word on|off  read an unknown sentence-initial word as its lower-case form
   --suffix-length N              longest suffix for unknown words (0 = off)
   --suffix-theta θ|brants        successive-abstraction weight
@@ -140,7 +140,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   }
   if (values["position-strength"] !== undefined) config.positionStrength = number("position-strength", values["position-strength"], (n) => n >= 0, "a number ≥ 0");
   if (values.rare !== undefined) config.rare = number("rare", values.rare, (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
-  if (values["word-classes"] !== undefined) config.wordClasses = choice("word-classes", values["word-classes"], ["none", "bikel", "extended"] as const);
+  if (values["word-classes"] !== undefined) config.wordClasses = choice("word-classes", values["word-classes"], ["none", "bikel", "extended", "informal"] as const);
   const lowercaseFirstWord = onOff("lowercase-first-word", values["lowercase-first-word"]);
   if (lowercaseFirstWord !== undefined) config.lowercaseFirstWord = lowercaseFirstWord;
   if (values["suffix-length"] !== undefined) config.suffixLength = number("suffix-length", values["suffix-length"], (n) => Number.isInteger(n) && n >= 0, "an integer ≥ 0");
@@ -293,7 +293,7 @@ function commandEvaluate(values: Values): void {
   if (values.folds !== undefined) {
     const k = number("folds", values.folds, (n) => Number.isInteger(n) && n >= 2, "an integer ≥ 2");
     if (trainingDocuments.length === 0) throw new UsageError("--folds needs --train FILE (cross-validation trains on the training documents)");
-    crossValidation = crossValidate(trainingDocuments, trainingConfig(values), k);
+    crossValidation = crossValidate(trainingDocuments, trainingConfig(values), k, { confidences: true });
   }
   const e = result.entities;
   const summary = {
@@ -308,6 +308,7 @@ function commandEvaluate(values: Values): void {
     trainSeconds: round(trainSeconds),
     tagSeconds: round(tagSeconds),
     tagTokensPerSecond: tagSeconds > 0 ? Math.round(result.tokens / tagSeconds) : 0,
+    spanCalibrationError: result.calibration === null ? null : { ece: round(result.calibration.ece), spans: result.calibration.count },
     ...(crossValidation === null ? {} : { crossValidation }),
   };
   if (values.json === true) {
@@ -326,6 +327,10 @@ function commandEvaluate(values: Values): void {
     const cv = crossValidation;
     const f1 = cv.f1 === null ? "" : `F1 ${(100 * cv.f1.mean).toFixed(2)} ± ${(100 * cv.f1.std).toFixed(2)}, `;
     lines.push(`${cv.folds.length}-fold cross-validation over ${cv.unit}: ${f1}token accuracy ${(100 * cv.tokenAccuracy.mean).toFixed(2)} ± ${(100 * cv.tokenAccuracy.std).toFixed(2)}`);
+  }
+  if (summary.spanCalibrationError !== null) {
+    const cvEce = crossValidation?.spanCalibrationError;
+    lines.push(`span confidence: ECE ${summary.spanCalibrationError.ece.toFixed(4)} over ${summary.spanCalibrationError.spans} spans${cvEce ? `, under cross-validation ${cvEce.ece.toFixed(4)} over ${cvEce.spans}` : ""}`);
   }
   lines.push(`train ${summary.trainSeconds.toFixed(3)} s, tag ${summary.tagSeconds.toFixed(3)} s (${summary.tagTokensPerSecond} tokens/s)`);
   process.stdout.write(`${lines.join("\n")}\n`);

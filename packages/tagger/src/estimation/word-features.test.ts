@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { wordClassNames, wordClassOf } from "./word-features";
 
-const name = (word: string, first = false, scheme: "bikel" | "extended" = "bikel") => wordClassNames(scheme)[wordClassOf(word, first, scheme)];
+const name = (word: string, first = false, scheme: "bikel" | "extended" | "informal" = "bikel") => wordClassNames(scheme)[wordClassOf(word, first, scheme)];
 
 describe("wordClassOf (Bikel et al. 1997, Nymble, word-feature table)", () => {
   it("gives each example of the feature table its class", () => {
@@ -37,5 +37,34 @@ describe("wordClassOf (Bikel et al. 1997, Nymble, word-feature table)", () => {
     expect(name("techno-based", false, "extended")).toBe("lowerCaseHyphen");
     expect(name("É", false, "extended")).toBe("initCap");
     expect(new Set(wordClassNames("extended")).size).toBe(wordClassNames("extended").length);
+  });
+});
+
+describe("informal word classes (handles, hashtags and URLs as in Ritter et al. 2011 §2.1; emoticons as in Gimpel et al. 2011; lengthening as in Brody & Diakopoulos 2011; from memory)", () => {
+  const informal = (word: string, first = false) => name(word, first, "informal");
+
+  it("gives chat and post tokens their own classes", () => {
+    expect(informal("https://quorvel.example/a?b=1")).toBe("url");
+    expect(informal("www.quorvel.example")).toBe("url");
+    expect(informal("nessa@quorvel.example")).toBe("email");
+    expect(informal("@nessa_arvell")).toBe("handle");
+    expect(informal("#zerithfest")).toBe("hashtag");
+    expect(informal("#2026")).toBe("otherNum");
+    expect(informal("😀")).toBe("emoticon");
+    expect(informal("👍🏽")).toBe("emoticon");
+    expect(informal(":-)")).toBe("emoticon");
+    expect(informal("<3")).toBe("emoticon");
+    expect(informal("sooo")).toBe("elongatedLower");
+    expect(informal("Yesss")).toBe("elongatedCap");
+    expect(informal("gr8")).toBe("lowerCaseDigit");
+    expect(informal("@nessa", true)).toBe("firstWord+handle");
+  });
+
+  it("leaves edited-text words in their extended class", () => {
+    for (const word of ["Sally", "can", "BBN", "III", "M.", "1990", "A8956-67", "Anglo-Saxon", "McDonald", ",", "#", "@", "bookkeeper"]) {
+      expect(informal(word), word).toBe(name(word, false, "extended"));
+      expect(informal(word, true), word).toBe(name(word, true, "extended"));
+    }
+    expect(new Set(wordClassNames("informal")).size).toBe(wordClassNames("informal").length);
   });
 });

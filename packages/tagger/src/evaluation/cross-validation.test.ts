@@ -2,6 +2,8 @@ import { describe, expect, it } from "vitest";
 import { crossValidate, planFolds } from "./cross-validation";
 import { tagDocument, trainTagger } from "../model/tagger";
 import { tinyDocuments } from "../testing/tiny-corpus";
+import { evaluateModel } from "./evaluation";
+import { expectedCalibrationError } from "../metrics/calibration";
 
 describe("planFolds / crossValidate", () => {
   it("splits documents into contiguous folds that cover every document once", () => {
@@ -54,5 +56,24 @@ describe("planFolds / crossValidate", () => {
     expect(result.recall!.std).toBeCloseTo(Math.sqrt(3) / 21, 12);
     expect(result.tokenAccuracy.mean).toBeCloseTo(31 / 35, 12);
     expect(result.tokenAccuracy.std).toBeCloseTo(Math.sqrt(13) / 35, 12);
+  });
+
+  it("pools the held-out span confidences of every fold into one calibration error", () => {
+    // Invariant: the pooled ECE is expectedCalibrationError over the spans of each fold's model
+    // on its held-out documents, concatenated (Guo et al. 2017 §2 eq. 3 over all predictions).
+    const plan = planFolds(tinyDocuments, 3);
+    const confidences: number[] = [];
+    const correct: boolean[] = [];
+    plan.folds.forEach((heldOut, f) => {
+      const { model } = trainTagger(plan.folds.filter((_, g) => g !== f).flat());
+      for (const span of evaluateModel(model, heldOut, { confidences: true }).spans!) {
+        confidences.push(span.confidence);
+        correct.push(span.correct);
+      }
+    });
+    const result = crossValidate(tinyDocuments, {}, 3, { confidences: true });
+    expect(confidences.length).toBeGreaterThan(0);
+    expect(result.spanCalibrationError).toEqual({ ece: expectedCalibrationError(confidences, correct).ece, spans: confidences.length });
+    expect(crossValidate(tinyDocuments, {}, 3).spanCalibrationError).toBeNull();
   });
 });

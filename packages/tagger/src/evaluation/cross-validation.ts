@@ -1,5 +1,6 @@
 import type { ColumnDocument } from "../text/conll";
 import { evaluateModel } from "./evaluation";
+import { expectedCalibrationError } from "../metrics/calibration";
 import { trainTagger } from "../model/tagger";
 import type { TrainingConfig } from "../estimation/training-config";
 
@@ -21,6 +22,11 @@ export type CrossValidationResult = {
   readonly precision: Spread | null;
   readonly recall: Spread | null;
   readonly tokenAccuracy: Spread;
+  /**
+   * With `confidences` (iob scheme): expected calibration error (10 equal-width bins) of the
+   * span confidences of every fold's held-out documents pooled, and the number of spans; else null.
+   */
+  readonly spanCalibrationError: { readonly ece: number; readonly spans: number } | null;
 };
 
 function spread(values: number[]): Spread {
@@ -35,12 +41,25 @@ function spread(values: number[]): Spread {
  * few hundred entities make F1 swing by several points). Semi-supervised settings need unlabelled
  * text, so folds are trained supervised.
  */
-export function crossValidate(documents: readonly ColumnDocument[], config: Partial<TrainingConfig>, k: number): CrossValidationResult {
+export function crossValidate(
+  documents: readonly ColumnDocument[],
+  config: Partial<TrainingConfig>,
+  k: number,
+  options: { confidences?: boolean } = {},
+): CrossValidationResult {
   const { unit, folds } = planFolds(documents, k);
+  const confidences: number[] = [];
+  const correct: boolean[] = [];
+  let withSpans = options.confidences === true;
   const scores = folds.map((heldOut, f) => {
     const training = folds.filter((_, g) => g !== f).flat();
     const { model } = trainTagger(training, config);
-    const result = evaluateModel(model, heldOut);
+    const result = evaluateModel(model, heldOut, { confidences: options.confidences === true });
+    if (result.spans === null) withSpans = false;
+    else for (const span of result.spans) {
+      confidences.push(span.confidence);
+      correct.push(span.correct);
+    }
     const e = result.entities;
     return {
       f1: e === null ? null : e.overall.f1,
@@ -58,5 +77,6 @@ export function crossValidate(documents: readonly ColumnDocument[], config: Part
     precision: entity ? spread(scores.map((s) => s.precision!)) : null,
     recall: entity ? spread(scores.map((s) => s.recall!)) : null,
     tokenAccuracy: spread(scores.map((s) => s.tokenAccuracy)),
+    spanCalibrationError: withSpans ? { ece: expectedCalibrationError(confidences, correct).ece, spans: confidences.length } : null,
   };
 }

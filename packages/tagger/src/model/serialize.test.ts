@@ -17,6 +17,8 @@ describe("serializeModel / loadModel", () => {
     ["second order", { order: 2 as const }],
     ["position buckets", { positionBuckets: { token: [1, 2], sentence: [1] } }],
     ["bikel classes, no suffixes", { wordClasses: "bikel" as const, suffixLength: 0 }],
+    ["extended classes", { wordClasses: "extended" as const }],
+    ["informal classes", { wordClasses: "informal" as const }],
     ["NLTK-compatible", { nltkCompatible: true }],
   ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
     const { model } = trainTagger(tinyDocuments, config);
@@ -53,7 +55,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1 and 2/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2 and 3/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -87,9 +89,26 @@ describe("schema version 1", () => {
       expect(result.chunks.map((c) => [c.type, c.start, c.end])).toEqual(expected.chunks.map((c) => [c.type, c.start, c.end]));
       result.chunks.forEach((c, k) => expect(c.confidence).toBeCloseTo(expected.chunks[k].confidence, 12));
     });
-    // Written again, it is a version-2 file with no calibration that loads to the same tags.
+    // Written again, it is a current-version file with no calibration that loads to the same tags.
     const again = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
-    expect(serializeModel(again).schemaVersion).toBe(2);
+    expect(serializeModel(again).schemaVersion).toBe(MODEL_SCHEMA_VERSION);
     expect(tagSentence(again, fixture.sentences[0]).tags).toEqual(fixture.expected[0].tags);
+  });
+});
+
+describe("schema version 3", () => {
+  it("names the informal word classes, which a version-2 file cannot", () => {
+    const json = serializeModel(trainTagger(tinyDocuments, { wordClasses: "informal" }).model);
+    expect(json.schemaVersion).toBe(3);
+    expect(json.vocabulary.wordClasses).toBe("informal");
+    expect(() => loadModel({ ...json, schemaVersion: 2 })).toThrow(/vocabulary.wordClasses/);
+  });
+
+  it("a version-2 file with extended classes loads and tags as a freshly trained extended model", () => {
+    const { model } = trainTagger(tinyDocuments, { wordClasses: "extended" });
+    const v2 = { ...serializeModel(model), schemaVersion: 2 };
+    const loaded = loadModel(JSON.parse(JSON.stringify(v2)));
+    expect(loaded.vocabulary.scheme).toBe("extended");
+    for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
   });
 });

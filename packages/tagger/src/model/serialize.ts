@@ -8,9 +8,12 @@ import type { PlattCalibration } from "../estimation/platt";
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 2;
-/** Older versions this release still reads: version 1 had no calibration (raw chunk marginals). */
-const READABLE_VERSIONS = [1, 2];
+export const MODEL_SCHEMA_VERSION = 3;
+/**
+ * Versions this release reads: version 1 had no calibration (raw chunk marginals); version 2
+ * could not name the `informal` word classes (version 3); a version-1 or -2 file reads as before.
+ */
+const READABLE_VERSIONS = [1, 2, 3];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -179,7 +182,7 @@ export function loadModel(json: unknown): TaggerModel {
   if (typeof root.schemaVersion !== "number" || !READABLE_VERSIONS.includes(root.schemaVersion)) {
     throw new ModelFormatError(
       "schemaVersion",
-      `unsupported schema version ${JSON.stringify(root.schemaVersion)}; this version of @tagloom/tagger reads versions ${READABLE_VERSIONS.join(" and ")} (retrain the model or use a matching release)`,
+      `unsupported schema version ${JSON.stringify(root.schemaVersion)}; this version of @tagloom/tagger reads versions ${READABLE_VERSIONS.slice(0, -1).join(", ")} and ${READABLE_VERSIONS[READABLE_VERSIONS.length - 1]} (retrain the model or use a matching release)`,
     );
   }
   const version = root.schemaVersion;
@@ -197,7 +200,9 @@ export function loadModel(json: unknown): TaggerModel {
   }
   const vocabularyJson = object(root.vocabulary, "vocabulary");
   const wordClasses = vocabularyJson.wordClasses;
-  if (wordClasses !== "none" && wordClasses !== "bikel" && wordClasses !== "extended") throw new ModelFormatError("vocabulary.wordClasses", "expected none, bikel or extended");
+  if (wordClasses !== "none" && wordClasses !== "bikel" && wordClasses !== "extended" && (wordClasses !== "informal" || version < 3)) {
+    throw new ModelFormatError("vocabulary.wordClasses", `expected none, bikel, extended${version >= 3 ? " or informal" : ` (informal needs schema version 3, this file has ${version})`}`);
+  }
   let vocabulary;
   try {
     vocabulary = createVocabulary(strings(vocabularyJson.words, "vocabulary.words"), wordClasses, config.lowercaseFirstWord);
