@@ -16,6 +16,8 @@ import { mountWebApp } from "@/web-static";
 export type AppOptions = {
   /** Attempts per address per 15 minutes on sign-in, sign-up and reset (default: AUTH_RATE_LIMIT). */
   authRateLimit?: number;
+  /** Express "trust proxy" (default: TRUST_PROXY); X-Forwarded-For is believed only from these peers. */
+  trustProxy?: false | number | string;
   /** Tagging API requests per token per window (default: TAGGING_RATE_LIMIT per TAGGING_RATE_WINDOW_SECONDS). */
   taggingRateLimit?: { points: number; windowSeconds: number };
 };
@@ -24,7 +26,8 @@ export type AppOptions = {
 export function createApp(options: AppOptions = {}): Express {
   const app = express();
   app.disable("x-powered-by");
-  app.set("trust proxy", "loopback");
+  // Explicit (TRUST_PROXY): with the default nobody may choose the address rate limits key on.
+  app.set("trust proxy", options.trustProxy ?? env.trustProxy);
   app.use(
     helmet({
       contentSecurityPolicy: {

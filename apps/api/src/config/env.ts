@@ -28,6 +28,16 @@ const envSchema = z.object({
   UPLOAD_DIR: z.string().optional(),
   /** Sign-in, sign-up and password-reset attempts allowed per address per 15 minutes. */
   AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(20),
+  /**
+   * Which peers may set X-Forwarded-For (Express "trust proxy"): "false" (default: the peer's own
+   * address is the client's, whoever sends the header), a number of proxy hops, or a comma list of
+   * addresses and subnets ("loopback", "10.0.0.0/8"). Set it only when a proxy sits in front.
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .regex(/^(false|\d{1,2}|[\w.:/]+(\s*,\s*[\w.:/]+)*)$/, 'use "false", a hop count, or addresses/subnets separated by commas')
+    .default("false"),
   /** Upload limits (enforced before any file is read): bytes per file, files and bytes per upload, characters per document. */
   UPLOAD_MAX_FILE_BYTES: z.coerce.number().int().min(1).default(20 * 1024 * 1024),
   UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
@@ -55,7 +65,7 @@ const envSchema = z.object({
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });
 
-export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string };
+export type Env = z.infer<typeof envSchema> & { publicUrl: string; cookieSecure: boolean; uploadDir: string; trustProxy: false | number | string };
 
 export class EnvError extends Error {}
 
@@ -72,6 +82,7 @@ export function loadEnv(source: NodeJS.ProcessEnv): Env {
     publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ""),
     cookieSecure: e.COOKIE_SECURE ? e.COOKIE_SECURE === "true" : e.NODE_ENV === "production",
     uploadDir: e.UPLOAD_DIR ?? path.join(repoRoot, ".data", "uploads"),
+    trustProxy: e.TRUST_PROXY === "false" ? false : /^\d+$/.test(e.TRUST_PROXY) ? Number(e.TRUST_PROXY) : e.TRUST_PROXY,
   };
 }
 

@@ -12,6 +12,9 @@ export function authRateLimit(limit: number, windowMs = 15 * 60 * 1000): Request
     limit,
     standardHeaders: "draft-8",
     legacyHeaders: false,
+    // The trusted proxies are set explicitly (TRUST_PROXY); a forwarded header from anyone else is
+    // ignored on purpose, not a misconfiguration to warn about.
+    validate: { xForwardedForHeader: false, trustProxy: false },
     handler: (_req, _res, next) => next(new RateLimitedError("Too many attempts from this address; wait a few minutes and try again.")),
   });
 }
