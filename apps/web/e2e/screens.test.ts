@@ -131,7 +131,14 @@ describe("the main screens at 1440 and 390 px", () => {
 
   it("a manager's screens: batch progress and documents by status; the organization's settings are not offered", async () => {
     await checkScreens(manager, "manager", [
-      { name: "overview", url: () => org(), ready: (p) => p.getByRole("region", { name: "Documents by status" }).getByText("In a batch").waitFor() },
+      {
+        name: "overview",
+        url: () => org(),
+        ready: async (p) => {
+          await p.getByRole("region", { name: "Documents by status" }).getByText("In a batch").waitFor();
+          await p.getByRole("region", { name: "Agreement trend" }).getByText(/No agreement yet/).waitFor();
+        },
+      },
       { name: "batch", url: () => corpus(`/batches/${batchId}`), ready: heading(/Quay readings/) },
       { name: "settings", url: () => org("/settings"), ready: heading("Not available to your role") },
     ]);
