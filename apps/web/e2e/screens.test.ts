@@ -5,10 +5,12 @@ import axe from "axe-core";
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
 import { ApiClient, type Person, type Team, setUpTeam, signIn } from "./support/annotation-team";
-import { useBrowser } from "./support/browser";
+import { useBrowser, waitForEmail } from "./support/browser";
 
 const session = useBrowser();
 let team: Team;
+let manager: Person;
+let lead: Person;
 let assignmentId = "";
 let batchId = "";
 
@@ -30,8 +32,21 @@ beforeAll(async () => {
   await annotator.call("POST", "/auth/sign-in", { email: ines.email, password: ines.password });
   const queue = await annotator.call<{ items: Array<{ assignmentId: string }> }>("GET", `/orgs/${team.orgId}/queue`);
   assignmentId = queue.items[0]!.assignmentId;
+  manager = await join("Pell Orrin", "manager");
+  lead = await join("Sable Wick", "data_lead");
   fs.mkdirSync(shots, { recursive: true });
 }, 90_000);
+
+/** A member who joined by invitation with a role. */
+async function join(name: string, role: "manager" | "data_lead"): Promise<Person> {
+  const email = `${role}-${Date.now().toString(36)}@example.test`;
+  await team.api.call("POST", `/orgs/${team.orgId}/invitations`, { email, role });
+  const mail = await waitForEmail(session.mailUrl, email, /invited to/);
+  const token = decodeURIComponent(new URL(mail.link).pathname.split("/").pop()!);
+  const password = "a long enough passphrase";
+  const joined = await new ApiClient(session.baseUrl).call<{ user: { id: string } }>("POST", "/auth/sign-up", { email, password, name, invitationToken: token });
+  return { name, email, password, userId: joined.user.id };
+}
 
 type Visit = { name: string; url: () => string; ready: (page: Page) => Promise<unknown> };
 
@@ -111,6 +126,28 @@ describe("the main screens at 1440 and 390 px", () => {
       { name: "audit", url: () => org("/audit"), ready: (p) => p.getByRole("table", { name: "Audit events" }).waitFor() },
       { name: "billing", url: () => org("/billing"), ready: heading(/Billing/) },
       { name: "settings", url: () => org("/settings"), ready: heading(/Settings|Organization/) },
+    ]);
+  });
+
+  it("a manager's screens: batch progress and documents by status; the organization's settings are not offered", async () => {
+    await checkScreens(manager, "manager", [
+      {
+        name: "overview",
+        url: () => org(),
+        ready: async (p) => {
+          await p.getByRole("region", { name: "Documents by status" }).getByText("In a batch").waitFor();
+          await p.getByRole("region", { name: "Agreement trend" }).getByText(/No agreement yet/).waitFor();
+        },
+      },
+      { name: "batch", url: () => corpus(`/batches/${batchId}`), ready: heading(/Quay readings/) },
+      { name: "settings", url: () => org("/settings"), ready: heading("Not available to your role") },
+    ]);
+  });
+
+  it("a data lead's screens: suggesters and runs", async () => {
+    await checkScreens(lead, "lead", [
+      { name: "overview", url: () => org(), ready: (p) => p.getByRole("region", { name: "Taggers and runs" }).getByText("No training runs yet.").waitFor() },
+      { name: "documents", url: () => corpus(), ready: (p) => p.getByRole("link", { name: "Harbour log" }).waitFor() },
     ]);
   });
 

@@ -35,12 +35,15 @@ export function daysUntil(day: string, now = new Date()): number {
   return Math.round((localDay(day).getTime() - today.getTime()) / DAY_MS);
 }
 
-/** A due day in words relative to today: "due today", "due tomorrow", "due in 3 days", "2 days overdue". */
+/** A due day in words relative to today: "due today", "due tomorrow", "due in 3 days", "due in 5 weeks", "due in 8 months", "2 days overdue". */
 export function formatDue(day: string, now = new Date()): { text: string; late: boolean; soon: boolean } {
   const n = daysUntil(day, now);
   if (n < 0) return { text: `${-n} day${n === -1 ? "" : "s"} overdue`, late: true, soon: false };
   if (n === 0) return { text: "due today", late: false, soon: true };
   if (n === 1) return { text: "due tomorrow", late: false, soon: true };
+  // Past six weeks a count of days stops helping; whole weeks or months read better.
+  if (n > 60) return { text: `due in ${Math.round(n / 30.44)} months`, late: false, soon: false };
+  if (n > 14) return { text: `due in ${Math.round(n / 7)} weeks`, late: false, soon: false };
   return { text: `due in ${n} days`, late: false, soon: n <= 3 };
 }
 

@@ -77,7 +77,7 @@ function AuditScreen() {
 const col = createColumnHelper<AuditEvent>();
 const columns = [
   col.accessor("createdAt", { header: "When", cell: (c) => <span className="whitespace-nowrap text-ink-500">{formatDateTime(c.getValue())}</span> }),
-  col.accessor("actor", { header: "Who", cell: (c) => <span className="break-all">{c.getValue()}</span> }),
+  col.accessor("actor", { header: "Who", cell: (c) => <span className="whitespace-nowrap">{c.getValue()}</span> }),
   col.accessor("action", { header: "Action", cell: (c) => <span title={c.getValue()}>{auditActionLabel(c.getValue())}</span> }),
   col.display({ id: "object", header: "Object", cell: (c) => c.row.original.targetLabel ?? c.row.original.targetId ?? "—" }),
   col.accessor("details", {

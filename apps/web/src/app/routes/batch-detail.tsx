@@ -1,5 +1,7 @@
+import { countOf } from "@tagloom/contracts";
 import { Link, useParams } from "react-router";
 import { Card, Notice, PageHeader, Skeleton } from "@/components/ui/card";
+import { DueDate } from "@/components/ui/due-date";
 import { paths } from "@/config/paths";
 import { useBatch } from "@/features/batches/api/get-batch";
 import { useBatchAgreement } from "@/features/batches/api/get-batch-agreement";
@@ -35,7 +37,12 @@ function BatchDetailScreen() {
         </Link>
         <PageHeader
           title={b.name}
-          subtitle={`${b.documentCount} documents · ${b.annotatorsPerDocument} annotator${b.annotatorsPerDocument === 1 ? "" : "s"} per document · ${b.dueDate ? `due ${b.dueDate}` : "no due date"}${b.createdBy ? ` · made by ${b.createdBy}` : ""}`}
+          subtitle={
+            <>
+              {countOf(b.documentCount, "document")} · {countOf(b.annotatorsPerDocument, "annotator")} per document · <DueDate day={b.dueDate} />
+              {b.createdBy ? ` · made by ${b.createdBy}` : ""}
+            </>
+          }
         />
       </div>
       <Card className="flex flex-wrap items-center gap-8">

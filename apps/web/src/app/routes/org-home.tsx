@@ -2,7 +2,9 @@ import { can, roleLabels } from "@tagloom/contracts";
 import { PageHeader } from "@/components/ui/card";
 import { useCorpora } from "@/features/corpora/api/get-corpora";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { useBatches } from "@/features/batches/api/get-batches";
 import { RecentAuditSection, SeatsSection } from "./overview/admin";
+import { AgreementTrendSection } from "./overview/agreement-trend";
 import { BatchProgressSection, DocumentsByStatusSection } from "./overview/batches";
 import { MyWorkSection } from "./overview/my-work";
 import { TrainingSection } from "./overview/training";
@@ -22,6 +24,7 @@ export function OrgHomeRoute() {
   const seesCorpora = can(role, "viewCorpusData");
   const corpora = useCorpora(id, "false", { enabled: seesCorpora });
   const firstCorpora = (corpora.data?.pages[0]?.items ?? []).slice(0, CORPORA_SHOWN);
+  const batches = useBatches(id, { enabled: role === "manager" });
   return (
     <div className="max-w-6xl">
       <PageHeader title={org.organizationName} subtitle={`You are ${roleLabels[role].toLowerCase()} here.`} />
@@ -30,6 +33,7 @@ export function OrgHomeRoute() {
         {can(role, "manageBilling") ? <SeatsSection orgId={id} /> : null}
         {can(role, "manageBatches") ? <BatchProgressSection orgId={id} /> : null}
         {role === "manager" ? <DocumentsByStatusSection orgId={id} corpora={firstCorpora} /> : null}
+        {role === "manager" ? <AgreementTrendSection orgId={id} batches={batches.data?.pages[0]?.items ?? []} /> : null}
         {can(role, "train") ? <TrainingSection orgId={id} corpora={firstCorpora} /> : null}
         {can(role, "viewAudit") ? <RecentAuditSection orgId={id} /> : null}
       </div>

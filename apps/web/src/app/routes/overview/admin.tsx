@@ -48,7 +48,7 @@ export function RecentAuditSection({ orgId }: { orgId: string }) {
             <li key={e.id} className="flex flex-wrap justify-between gap-x-3 py-1.5">
               <span className="min-w-0 text-ink-800">
                 {auditActionLabel(e.action)}
-                {e.targetLabel ? <span className="text-ink-500"> · {e.targetLabel}</span> : null}
+                {e.targetLabel && e.targetLabel !== e.actor ? <span className="text-ink-500"> · {e.targetLabel}</span> : null}
                 <span className="block text-xs break-all text-ink-500">{e.actor}</span>
               </span>
               <span className="shrink-0 text-ink-500">{formatAgo(e.createdAt)}</span>

@@ -12,6 +12,6 @@ export const batchesQueryOptions = (orgId: string) =>
     getNextPageParam: (last) => last.nextCursor ?? undefined,
   });
 
-export function useBatches(orgId: string) {
-  return useInfiniteQuery(batchesQueryOptions(orgId));
+export function useBatches(orgId: string, { enabled = true }: { enabled?: boolean } = {}) {
+  return useInfiniteQuery({ ...batchesQueryOptions(orgId), enabled });
 }

@@ -105,7 +105,8 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
 
   const readOnly = !view.canEdit || state === "submitted" || state === "accepted";
   return (
-    <div className="-mx-2 flex h-[calc(100vh-8.5rem)] min-h-[520px] flex-col gap-3 lg:-mx-4">
+    // Side by side from 768 px; on a phone the text comes first at most of the screen's height and the panels follow below it.
+    <div className="-mx-2 flex flex-col gap-3 md:h-[calc(100vh-8.5rem)] md:min-h-[520px] lg:-mx-4">
       <header className="flex flex-wrap items-center gap-x-6 gap-y-2">
         <div className="min-w-0">
           <div className="text-xs text-ink-500">{backLink}</div>
@@ -148,8 +149,8 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
       {submitError ? <Notice tone="error">{submitError}</Notice> : null}
       <ConflictNotice store={store} saver={saver} />
       <StoreMessage store={store} />
-      <div className="flex min-h-0 flex-1 gap-4">
-        <div className="min-w-0 flex-1">
+      <div className="flex min-h-0 flex-1 flex-col gap-4 md:flex-row">
+        <div className="h-[70vh] min-h-80 min-w-0 md:h-auto md:flex-1">
           <DocumentText
             ref={textRef}
             store={store}
@@ -158,7 +159,7 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
             onGuideline={(name) => setGuideline((g) => (g === name ? null : name))}
           />
         </div>
-        <aside aria-label="Schema, keys and suggestions" className="flex w-80 shrink-0 flex-col gap-3 overflow-y-auto pb-2">
+        <aside aria-label="Schema, keys and suggestions" className="flex w-full shrink-0 flex-col gap-3 pb-2 md:w-80 md:overflow-y-auto">
           <SchemaPanel store={store} openGuideline={guideline} onGuideline={setGuideline} />
           <SuggestionsPanel store={store} onJump={() => textRef.current?.showCursor()} />
           <KeysCard />
