@@ -12,7 +12,7 @@ export const trainingConfigDefaults = {
   positionBuckets: { token: [] as number[], sentence: [] as number[] },
   positionStrength: 10,
   rare: 4,
-  wordClasses: "extended" as "none" | "bikel" | "extended",
+  wordClasses: "informal" as "none" | "bikel" | "extended" | "informal",
   suffixLength: 6,
   order: 1 as 1 | 2,
   prevWord: true,
@@ -54,7 +54,7 @@ export const trainingConfigInputSchema = z.strictObject({
   positionStrength: z.number().finite("Enter a number.").min(0, "Use 0 or more.").max(100_000, "Use at most 100,000.").optional(),
   /** Words seen at most this often are modelled through their word class. */
   rare: z.number().int("Use a whole number.").min(0, "Use 0 or more.").max(1000, "Use at most 1000.").optional(),
-  wordClasses: z.enum(["none", "bikel", "extended"], "Choose none, bikel or extended.").optional(),
+  wordClasses: z.enum(["none", "bikel", "extended", "informal"], "Choose none, bikel, extended or informal.").optional(),
   /** Longest suffix used for unknown words; 0 switches suffixes off. */
   suffixLength: z.number().int("Use a whole number.").min(0, "Use 0 or more.").max(10, "Use at most 10.").optional(),
   order: z.union([z.literal(1), z.literal(2)], "Choose 1 or 2.").optional(),
@@ -173,7 +173,7 @@ export const resolvedTrainingConfigSchema = z.object({
   positionBuckets: z.object({ token: z.array(z.number().int()), sentence: z.array(z.number().int()) }),
   positionStrength: z.number(),
   rare: z.number().int(),
-  wordClasses: z.enum(["none", "bikel", "extended"]),
+  wordClasses: z.enum(["none", "bikel", "extended", "informal"]),
   suffixLength: z.number().int(),
   order: z.union([z.literal(1), z.literal(2)]),
   prevWord: z.boolean(),

@@ -1,7 +1,7 @@
 import type { ResolvedTrainingConfig, TestSplit } from "@tagloom/contracts";
 import { trainingConfigDefaults as d } from "@tagloom/contracts";
 
-const wordClassNames = { none: "none", bikel: "shape classes", extended: "extended shape classes" } as const;
+const wordClassNames = { none: "none", bikel: "shape classes", extended: "extended shape classes", informal: "shape classes for informal text" } as const;
 const semiNames = { none: "no", em: "expected counts (EM)", sample: "sampled tags" } as const;
 
 /** A run's settings as a definition list, each marked when it differs from the engine's default. */

@@ -14,7 +14,7 @@ export type RunFormValues = {
   sentenceBuckets: string;
   positionStrength: string;
   rare: string;
-  wordClasses: "none" | "bikel" | "extended";
+  wordClasses: "none" | "bikel" | "extended" | "informal";
   suffixLength: string;
   order: "1" | "2";
   prevWord: boolean;
@@ -227,6 +227,7 @@ export function RunForm({ onSubmit, busy }: { onSubmit: (input: StartRunInput) =
                 <option value="none">None</option>
                 <option value="bikel">Shape classes (capitals, digits)</option>
                 <option value="extended">Extended shape classes</option>
+                <option value="informal">Extended, plus handles, tags, links and lengthened words</option>
               </Select>
             )}
           </Field>
