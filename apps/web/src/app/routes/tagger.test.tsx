@@ -148,6 +148,10 @@ describe("the tagger page, through the API", () => {
     expect(screen.getByText("Entity F1 (test)").parentElement).toHaveTextContent("0.667");
     expect(screen.getByRole("figure", { name: "Test F1 by share of gold documents" }).querySelector("svg")).not.toBeNull();
     expect(within(screen.getByRole("table", { name: "Learning curve" })).getAllByRole("row")).toHaveLength(5); // header + 10/25/50/100 %
+    for (const name of ["Log-likelihood per pass (sampling)", "Statistics held per pass (KB)", "Seconds per pass"]) expect(screen.getByRole("figure", { name }).querySelector("svg")).not.toBeNull();
+    const passes = within(screen.getByRole("table", { name: "Passes over documents without gold" }));
+    expect(passes.getByRole("row", { name: /^1 / })).toHaveTextContent("-5123.4");
+    expect(passes.getByRole("row", { name: /^2 / })).toHaveTextContent("-5001.9");
     expect(screen.getByText("11")).toBeInTheDocument(); // spurious VESSEL tokens in the confusion grid
     expect(await screen.findByRole("link", { name: "run 7" })).toHaveAttribute("href", paths.org.run.build(ORG, CORPUS, RUN));
     expect(screen.getByText("4242")).toBeInTheDocument(); // the seed it was trained with
