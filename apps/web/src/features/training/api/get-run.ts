@@ -11,6 +11,8 @@ export function useRun(orgId: string, corpusId: string, runId: string) {
   return useQuery({
     queryKey: [...runsKey(orgId, corpusId), runId],
     queryFn: () => api.get<TrainingRun>(`${corpusApi(orgId, corpusId)}/runs/${runId}`),
+    // A tagger stored without a run has no run id: asking for "runs/" would ask for the list.
+    enabled: runId !== "",
     refetchInterval: (q) => (q.state.data && finishedRunStatuses.includes(q.state.data.status) ? false : RUN_POLL_MS),
   });
 }

@@ -1,4 +1,4 @@
-import type { ComparisonDocument } from "@tagloom/contracts";
+import { type ComparisonDocument, countOf } from "@tagloom/contracts";
 import { SpanText, TypeKey } from "@/components/spans";
 import { Card } from "@/components/ui/card";
 
@@ -25,7 +25,7 @@ export function ComparisonDocumentView({ doc, labelA, labelB }: { doc: Compariso
         <Card key={r.key}>
           <section aria-label={r.title}>
             <h3 className="mb-2 text-sm font-semibold text-ink-700">
-              {r.title} <span className="font-normal text-ink-500">({r.spans.length} spans)</span>
+              {r.title} <span className="font-normal text-ink-500">({countOf(r.spans.length, "span")})</span>
             </h3>
             <p>
               <SpanText text={doc.document.text} spans={r.spans} types={doc.entityTypes} className="leading-9 text-ink-900" />

@@ -30,6 +30,24 @@ export function IterationsView({ iterations, method }: { iterations: RunIteratio
         series={[{ key: "ll", name: "log-likelihood", color: "#2f6f8f" }]}
         yFormat={(v) => v.toFixed(0)}
       />
+      <LineFigure
+        title="Statistics held per pass (KB)"
+        data={iterations.map((i) => ({ pass: i.iteration, kb: i.statisticsBytes / 1024 }))}
+        x="pass"
+        xLabel="pass"
+        series={[{ key: "kb", name: "kilobytes of statistics", color: "#b8661c" }]}
+        yDomain={[0, "auto"]}
+        yFormat={(v) => v.toFixed(1)}
+      />
+      <LineFigure
+        title="Seconds per pass"
+        data={iterations.map((i) => ({ pass: i.iteration, s: i.seconds }))}
+        x="pass"
+        xLabel="pass"
+        series={[{ key: "s", name: "seconds", color: "#5b6b7d", dash: "6 4" }]}
+        yDomain={[0, "auto"]}
+        yFormat={(v) => v.toFixed(2)}
+      />
       <DataTable table={table} flexRender={flexRender} caption="Passes over documents without gold" />
     </div>
   );

@@ -98,7 +98,7 @@ describe("the comparison", () => {
     };
     renderWithProviders(<ComparisonDocumentView doc={doc} labelA="Tagger v2" labelB="Tagger v3" />);
     expect(within(screen.getByRole("region", { name: "Gold" })).getAllByText(/\(PERSON\)|\(PLACE\)/)).toHaveLength(3);
-    expect(within(screen.getByRole("region", { name: "A: Tagger v2" })).getByText("(1 spans)", { exact: false })).toBeInTheDocument();
+    expect(within(screen.getByRole("region", { name: "A: Tagger v2" })).getByText("(1 span)", { exact: false })).toBeInTheDocument();
     // B tagged the place as a person: two PERSON spans and no PLACE.
     expect(within(screen.getByRole("region", { name: "B: Tagger v3" })).getAllByTitle("PERSON")).toHaveLength(2);
     expect(within(screen.getByRole("region", { name: "B: Tagger v3" })).queryByTitle("PLACE")).toBeNull();
