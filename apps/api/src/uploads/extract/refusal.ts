@@ -34,6 +34,9 @@ export type ExtractContext = {
   /** Entity type names of the corpus (spans of other types are refused). */
   knownTypes: ReadonlySet<string>;
   maxDocumentChars: number;
+  /** DOCX archives: at most this many parts, and this many bytes unpacked over the parts read. */
+  maxDocxEntries: number;
+  maxDocxUnpackedBytes: number;
 };
 
 /** At most this many problems are listed per file; the reason says how many there were. */
