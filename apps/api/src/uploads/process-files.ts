@@ -35,6 +35,8 @@ async function readFile(file: ClaimedFile, organizationId: string, upload: Uploa
       maxDocumentChars: getUploadLimits().maxDocumentChars,
       maxDocxEntries: env.UPLOAD_MAX_DOCX_ENTRIES,
       maxDocxUnpackedBytes: env.UPLOAD_MAX_DOCX_UNPACKED_BYTES,
+      maxPdfPages: env.UPLOAD_MAX_PDF_PAGES,
+      extractTimeLimitMs: env.UPLOAD_EXTRACT_SECONDS * 1000,
     });
     const docs = extracted.map((d) => ({
       uploadFileId: file.id,

@@ -37,6 +37,9 @@ export type ExtractContext = {
   /** DOCX archives: at most this many parts, and this many bytes unpacked over the parts read. */
   maxDocxEntries: number;
   maxDocxUnpackedBytes: number;
+  /** PDF files: at most this many pages, read within this many milliseconds. */
+  maxPdfPages: number;
+  extractTimeLimitMs: number;
 };
 
 /** At most this many problems are listed per file; the reason says how many there were. */
