@@ -43,6 +43,12 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: z.coerce.number().int().min(1).default(1000),
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(100 * 1024 * 1024),
   UPLOAD_MAX_DOCUMENT_CHARS: z.coerce.number().int().min(1).default(500_000),
+  /** A DOCX (a ZIP archive) may declare and unpack at most this many bytes, in at most this many parts. */
+  UPLOAD_MAX_DOCX_UNPACKED_BYTES: z.coerce.number().int().min(1).default(64 * 1024 * 1024),
+  UPLOAD_MAX_DOCX_ENTRIES: z.coerce.number().int().min(1).default(5000),
+  /** A PDF may have at most this many pages, and its reading stops after this many seconds. */
+  UPLOAD_MAX_PDF_PAGES: z.coerce.number().int().min(1).default(2000),
+  UPLOAD_EXTRACT_SECONDS: z.coerce.number().int().min(1).default(120),
   /** Payments: the SDK's secret key and where its API is (the local fake by default; a real host works unchanged). */
   STRIPE_SECRET_KEY: z.string().min(1).default("sk_test_tagloom_local"),
   STRIPE_API_HOST: z.string().min(1).default("127.0.0.1"),

@@ -1,6 +1,7 @@
 import type { RequestHandler } from "express";
 import { authenticateApiToken } from "@/api-tokens/api-tokens.service";
 import { UnauthorizedError } from "@/errors";
+import { withMeta } from "@/security/route-meta";
 
 const reasons = {
   malformed: "The API token is malformed; tokens start with tgl_ and are shown once when created.",
@@ -13,7 +14,7 @@ const reasons = {
  * ignored on purpose: pipelines use tokens, and a cookie here would make these routes reachable
  * from any page a signed-in member visits.
  */
-export const requireApiToken: RequestHandler = async (req, res, next) => {
+export const requireApiToken: RequestHandler = withMeta(async (req, res, next) => {
   const header = req.get("authorization");
   res.setHeader("WWW-Authenticate", 'Bearer realm="tagloom"');
   if (!header) throw new UnauthorizedError("Send the organization's API token as Authorization: Bearer <token>.");
@@ -24,4 +25,4 @@ export const requireApiToken: RequestHandler = async (req, res, next) => {
   res.removeHeader("WWW-Authenticate");
   req.apiToken = { id: found.id, organizationId: found.organizationId, name: found.name };
   next();
-};
+}, { auth: "token" });

@@ -1,4 +1,5 @@
 import type { EntityType } from "@tagloom/contracts";
+import { env } from "@/config/env";
 import { listEntityTypes } from "@/corpora/corpora.service";
 import { db as defaultDb } from "@/db/knex";
 import { type DocumentToImport, importDocuments, tokenizeDocumentText } from "@/documents/documents.service";
@@ -32,6 +33,10 @@ async function readFile(file: ClaimedFile, organizationId: string, upload: Uploa
       filename: file.filename,
       knownTypes: new Set(types.map((t) => t.name)),
       maxDocumentChars: getUploadLimits().maxDocumentChars,
+      maxDocxEntries: env.UPLOAD_MAX_DOCX_ENTRIES,
+      maxDocxUnpackedBytes: env.UPLOAD_MAX_DOCX_UNPACKED_BYTES,
+      maxPdfPages: env.UPLOAD_MAX_PDF_PAGES,
+      extractTimeLimitMs: env.UPLOAD_EXTRACT_SECONDS * 1000,
     });
     const docs = extracted.map((d) => ({
       uploadFileId: file.id,

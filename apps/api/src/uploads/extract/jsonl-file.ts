@@ -1,7 +1,7 @@
 import { type FileProblem, findUnstorableText, jsonlLineSchema } from "@tagloom/contracts";
 import { findSpanProblems } from "@/documents/span-checks";
 import { decodeUtf8 } from "./text-file";
-import { type ExtractContext, type ExtractedDocument, FileRefusal, MAX_LISTED_PROBLEMS, checkDocumentText, titleFromFilename } from "./refusal";
+import { type ExtractContext, type ExtractedDocument, FileRefusal, MAX_LISTED_PROBLEMS, checkDocumentText, titleFromFilename, withoutBidiControls } from "./refusal";
 
 /**
  * A .jsonl file: one document per non-blank line, `{"text", "title"?, "split"?, "spans"?}`.
@@ -61,7 +61,7 @@ export function extractJsonlFile(bytes: Uint8Array, ctx: ExtractContext): Extrac
     }
     docs.push({
       sourceIndex: n,
-      title: (title?.trim() || `${fileTitle} line ${line}`).slice(0, 300),
+      title: (withoutBidiControls(title ?? "").trim() || `${fileTitle} line ${line}`).slice(0, 300),
       text,
       split,
       spans: spans?.map((s) => ({ start: s.start, end: s.end, type: s.type, confidence: s.confidence })),

@@ -5,7 +5,7 @@ import { extractColumnFile } from "./column-file";
 import { extractJsonlFile } from "./jsonl-file";
 import { extractTextFile, findInvalidUtf8 } from "./text-file";
 
-const ctx = { filename: "sample.txt", knownTypes: new Set(["PARTY", "PLACE"]), maxDocumentChars: 1_000_000 };
+const ctx = { filename: "sample.txt", knownTypes: new Set(["PARTY", "PLACE"]), maxDocumentChars: 1_000_000, maxDocxEntries: 5000, maxDocxUnpackedBytes: 64 * 1024 * 1024, maxPdfPages: 2000, extractTimeLimitMs: 120_000 };
 const utf8 = (s: string) => new TextEncoder().encode(s);
 
 // Pieces of text from several scripts and whitespace kinds, so that generated documents mix

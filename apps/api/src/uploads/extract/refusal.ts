@@ -34,14 +34,31 @@ export type ExtractContext = {
   /** Entity type names of the corpus (spans of other types are refused). */
   knownTypes: ReadonlySet<string>;
   maxDocumentChars: number;
+  /** DOCX archives: at most this many parts, and this many bytes unpacked over the parts read. */
+  maxDocxEntries: number;
+  maxDocxUnpackedBytes: number;
+  /** PDF files: at most this many pages, read within this many milliseconds. */
+  maxPdfPages: number;
+  extractTimeLimitMs: number;
 };
 
 /** At most this many problems are listed per file; the reason says how many there were. */
 export const MAX_LISTED_PROBLEMS = 50;
 
-/** The title a file gives its document: its name without the ending, at most 300 characters. */
+// Bidirectional embedding, override and isolate controls (Unicode Standard Annex #9, "Unicode
+// Bidirectional Algorithm", §2.1-2.4: U+202A-U+202E and U+2066-U+2069). In a title they can make
+// text display reversed and reorder what is shown beside it (e.g. "report\u202Etxt.exe").
+const BIDI_CONTROLS = /[\u202A-\u202E\u2066-\u2069]/g;
+
+/** A title without bidirectional controls; the file's own record keeps its name as sent. */
+export function withoutBidiControls(text: string): string {
+  return text.replace(BIDI_CONTROLS, "");
+}
+
+/** The title a file gives its document: its name without the ending and bidi controls, at most 300 characters. */
 export function titleFromFilename(filename: string): string {
-  const base = filename.replace(/\.[^.]+$/, "").trim() || filename;
+  const name = withoutBidiControls(filename);
+  const base = name.replace(/\.[^.]+$/, "").trim() || name;
   return base.slice(0, 300);
 }
 
