@@ -52,7 +52,7 @@ describe("fuzz pass over the JSON routes", () => {
         const route = routes[index]!;
         let payload: unknown = sent;
         if (sent && typeof sent === "object" && "i" in sent && "key" in sent) {
-          const { key, value } = sent as { key: string; value: unknown };
+          const { key, value } = sent as unknown as { key: string; value: unknown };
           const good = route.body?.(f) ?? route.probe?.(f) ?? {};
           payload = typeof good === "object" && good !== null ? { ...good, [key]: value } : { [key]: value };
         }
