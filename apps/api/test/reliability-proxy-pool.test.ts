@@ -34,6 +34,17 @@ describe("trusted proxies are explicit", () => {
     expect(statuses).toEqual([401, 401, 401, 401]);
   });
 
+  it("keeps the counters in PostgreSQL, so two API processes share one limit", async () => {
+    const one = await startTestServer({ authRateLimit: 5 });
+    const two = await startTestServer({ authRateLimit: 5 });
+    const attempt = (s: typeof one) => s.agent().post("/api/auth/sign-in").send({ email: uniqueEmail("ghost"), password: "wrong password!!" });
+    const statuses: number[] = [];
+    for (const s of [one, two, one, two, one, two]) statuses.push((await attempt(s)).status);
+    expect(statuses).toEqual([401, 401, 401, 401, 401, 429]);
+    const rows = await db("auth_rate_limits").where("key", "like", "auth:5:%").select("key", "points");
+    expect(rows).toEqual([{ key: expect.stringMatching(/127\.0\.0\.1$/), points: 6 }]);
+  });
+
   it("reads TRUST_PROXY from the environment and refuses a value it cannot understand", () => {
     const base = { DATABASE_URL: "postgres://u@127.0.0.1:5432/x" };
     expect(loadEnv(base).trustProxy).toBe(false);
