@@ -74,7 +74,7 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
           <ul className="divide-y divide-ink-50" aria-label="Documents where the taggers disagree">
             {c.disagreements.map((d) => (
               <li key={d.documentId} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
-                {/* A full page load: an in-app navigation to this view stalled in Chromium (known issue, see the closing note). */}
+                {/* A full page load: an in-app navigation to this view left the previous screen up in Chromium (cause not found yet). */}
                 <Link reloadDocument className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
                   {d.title}
                 </Link>
