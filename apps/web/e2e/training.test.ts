@@ -33,6 +33,7 @@ describe("training in the browser", () => {
     const { page } = await session.newPage();
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
+    page.on("console", (m) => errors.push(`console ${m.type()}: ${m.text()}`));
     await signIn(page, team.dataLead, `/o/${team.orgId}/taggers`);
     await page.getByRole("heading", { name: "Taggers" }).waitFor();
     await page.getByRole("link", { name: "Quay logs" }).click();

@@ -227,7 +227,7 @@ export function RunForm({ onSubmit, busy }: { onSubmit: (input: StartRunInput) =
                 <option value="none">None</option>
                 <option value="bikel">Shape classes (capitals, digits)</option>
                 <option value="extended">Extended shape classes</option>
-                <option value="informal">Extended, plus handles, tags, links and lengthened words</option>
+                <option value="informal">Informal text (handles, tags, links)</option>
               </Select>
             )}
           </Field>
