@@ -11,6 +11,7 @@ import { evaluateModel } from "../src/evaluation/evaluation";
 import { tagDocument, trainTagger } from "../src/model/tagger";
 import type { TrainingConfig } from "../src/estimation/training-config";
 import { brownDirectory, brownNewsSplit } from "../test/brown-corpus";
+import { selectConfiguration } from "../src/estimation/select-config";
 
 export const BROWN_CONFIGURATIONS: Array<{ name: string; config: Partial<TrainingConfig> }> = [
   { name: "first-order, defaults without prev-word/context tables", config: { prevWord: false, contextEmissions: false } },
@@ -25,6 +26,18 @@ export function brownReport(): Array<{ name: string; cv: number; cvStd: number; 
     const { model } = trainTagger(train, config);
     return { name, cv: cv.tokenAccuracy.mean, cvStd: cv.tokenAccuracy.std, test: evaluateModel(model, test).tokenAccuracy };
   });
+}
+
+/** What the CLI's default `train` does here: the candidate its 3-fold selection picks, and that model's test accuracy. */
+export function brownSelectionReport(): { chosen: string; scores: string; test: number } {
+  const { train, test } = brownNewsSplit();
+  const selection = selectConfiguration(train, {});
+  const { model } = trainTagger(train, selection.chosen.config);
+  return {
+    chosen: selection.chosen.name,
+    scores: selection.scores.map((s) => `${s.name} ${s.score.toFixed(4)}`).join(", "),
+    test: evaluateModel(model, test).tokenAccuracy,
+  };
 }
 
 /** Tags that differ from NLTK's on the test split (γ = 0.1), or an explanation when NLTK is missing. */

@@ -17,7 +17,7 @@ import { fileURLToPath } from "node:url";
 import { benchTagging, benchTraining, benchViterbi } from "../src/cli/bench";
 import { calibrationReport } from "./calibration";
 import { isWasmSimdAvailable } from "../src/kernels/viterbi-wasm";
-import { brownReport, nltkAgreement } from "./brown";
+import { brownReport, brownSelectionReport, nltkAgreement } from "./brown";
 import { WIKIGOLD_CONFIGURATIONS, wikigoldReport } from "./wikigold";
 
 const here = fileURLToPath(new URL(".", import.meta.url));
@@ -80,6 +80,8 @@ function tagging(): void {
 function brown(): void {
   print("5. Brown news split, token accuracy: 5-fold CV over the training files and test");
   for (const row of brownReport()) print(`   CV ${row.cv.toFixed(4)} ± ${row.cvStd.toFixed(4)}   test ${row.test.toFixed(4)}   ${row.name}`);
+  const selected = brownSelectionReport();
+  print(`   CLI default train: 3-fold selection (${selected.scores}) chose ${selected.chosen}; test ${selected.test.toFixed(4)}`);
   print(`   ${nltkAgreement()}`);
 }
 

@@ -152,7 +152,7 @@ describe("tagger CLI", () => {
   });
 
   it("rejects bad options with usage and exit code 2", () => {
-    for (const args of [["train", "--train", "train.bio"], ["frobnicate"], ["train", "--train", "train.bio", "--out", "x.json", "--order", "3"], ["evaluate", "--test", "test.bio"], ["train", "--bogus"]]) {
+    for (const args of [["train", "--train", "train.bio"], ["frobnicate"], ["train", "--train", "train.bio", "--out", "x.json", "--order", "3"], ["train", "--train", "train.bio", "--out", "x.json", "--select", "maybe"], ["evaluate", "--test", "test.bio"], ["train", "--bogus"]]) {
       const result = run(args, { cwd: dir });
       expect(result.code, args.join(" ")).toBe(2);
       expect(result.stderr, args.join(" ")).toMatch(/usage:|Unknown option/);

@@ -20,6 +20,7 @@ import { trainTagger, tagDocument, tagSentence } from "../model/tagger";
 import type { TaggerModel } from "../model/tagger-model";
 import { DEFAULT_TRAINING_CONFIG, type TrainingConfig } from "../estimation/training-config";
 import { benchTagging, benchTraining, benchViterbi } from "./bench";
+import { selectConfiguration } from "../estimation/select-config";
 
 /** An error the user can fix: printed as is, exit code 2. */
 class UsageError extends Error {}
@@ -46,7 +47,9 @@ training options:
   --constrain-iob on|off         forbid invalid IOB2 transitions
   --unlabelled FILE --semi em|sample --iterations N --weight W --seed N
   --calibration platt|none       span confidences calibrated on 5-fold CV of the training data (default platt)
-  --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)`;
+  --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)
+  --select cv|off                choose first-order or trigram by 3-fold CV of the training data
+                                 when --order, --prev-word and --context-emissions are unset (default cv)`;
 
 const OPTIONS = {
   train: { type: "string", multiple: true },
@@ -78,6 +81,7 @@ const OPTIONS = {
   calibration: { type: "string" },
   beam: { type: "string" },
   "nltk-compatible": { type: "boolean" },
+  select: { type: "string" },
   help: { type: "boolean" },
 } as const;
 
@@ -210,10 +214,12 @@ const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
 function trainFromArguments(values: Values): { model: TaggerModel; seconds: number; documents: ColumnDocument[] } {
   const files = values.train ?? [];
   if (files.length === 0) throw new UsageError("--train FILE is required");
-  const config = trainingConfig(values);
-  const { documents } = readLabelled(files, config.scheme);
+  const given = trainingConfig(values);
+  const select = values.select === undefined ? "cv" : choice("select", values.select, ["cv", "off"] as const);
+  const { documents } = readLabelled(files, given.scheme);
   const unlabelled = (values.unlabelled ?? []).flatMap((file) => readTokens(file, readText(file)));
   const started = process.hrtime.bigint();
+  const config = select === "cv" ? { ...given, ...selectConfiguration(documents, given).chosen.config } : given;
   const clock = () => Number(process.hrtime.bigint()) / 1e6;
   const { model, history } = trainTagger(documents, config, { unlabelled, now: clock });
   for (const report of history) {

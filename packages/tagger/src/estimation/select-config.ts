@@ -1,0 +1,95 @@
+/**
+ * Model selection inside training: a small cross-validation over the training documents only
+ * chooses between a few candidate configurations (common practice: k-fold cross-validation for
+ * model selection, Hastie, Tibshirani & Friedman, "The Elements of Statistical Learning", 2nd ed.,
+ * §7.10). The candidates differ in the transition model: the first-order model with the
+ * previous-word and context tables that suits a handful of entity tags, and a second-order
+ * (trigram) model with deleted interpolation, the structure of TnT (Brants 2000 §2.1–2.2) that
+ * suits large part-of-speech tag sets. The cost is bounded: each fold scores at most
+ * `maxHeldOutTokens` held-out tokens (whole sentences, from the start of the fold).
+ */
+import type { ColumnDocument } from "../text/conll";
+import { evaluateModel } from "../evaluation/evaluation";
+import { planFolds } from "../evaluation/folds";
+import { trainTagger } from "../model/tagger";
+import type { TrainingConfig } from "./training-config";
+
+export type SelectionCandidate = { readonly name: string; readonly config: Partial<TrainingConfig> };
+
+/** Candidates in preference order: a tie keeps the earlier one (the first is the plain default). */
+export const SELECTION_CANDIDATES: readonly SelectionCandidate[] = [
+  { name: "first-order", config: {} },
+  { name: "trigram", config: { order: 2, prevWord: false, contextEmissions: false } },
+];
+
+/** Options the candidates set; when the caller sets any of them, there is nothing to select. */
+const SELECTED_KEYS: readonly (keyof TrainingConfig)[] = ["order", "prevWord", "contextEmissions"];
+
+export type SelectionResult = {
+  readonly chosen: SelectionCandidate;
+  /** Mean held-out score per candidate (entity F1 for IOB tags, token accuracy for plain tags); empty when nothing was selected. */
+  readonly scores: readonly { readonly name: string; readonly score: number }[];
+  /** Why no selection ran, or null when it did. */
+  readonly skipped: string | null;
+};
+
+export type SelectionOptions = {
+  readonly folds?: number;
+  readonly maxHeldOutTokens?: number;
+  readonly candidates?: readonly SelectionCandidate[];
+};
+
+function headOf(documents: readonly ColumnDocument[], budget: number): ColumnDocument[] {
+  const out: ColumnDocument[] = [];
+  let left = budget;
+  for (const doc of documents) {
+    if (left <= 0) break;
+    const sentences = [];
+    for (const s of doc.sentences) {
+      if (left <= 0) break;
+      sentences.push(s);
+      left -= s.words.length;
+    }
+    out.push({ sentences });
+  }
+  return out;
+}
+
+/**
+ * Chooses the candidate with the best mean held-out score over `folds` folds (default 3) of the
+ * training documents, each candidate overlaid on `base` (calibration and unlabelled learning off
+ * inside the folds). Skipped (first candidate kept) when `base` sets an option the candidates set,
+ * asks for unlabelled learning (first-order only) or NLTK compatibility, or the data are too small.
+ */
+export function selectConfiguration(
+  documents: readonly ColumnDocument[],
+  base: Partial<TrainingConfig>,
+  options: SelectionOptions = {},
+): SelectionResult {
+  const candidates = options.candidates ?? SELECTION_CANDIDATES;
+  const k = options.folds ?? 3;
+  const budget = options.maxHeldOutTokens ?? 3000;
+  const keep = (skipped: string): SelectionResult => ({ chosen: candidates[0], scores: [], skipped });
+  const given = SELECTED_KEYS.filter((key) => base[key] !== undefined);
+  if (given.length > 0) return keep(`set on the command line: ${given.join(", ")}`);
+  if (base.nltkCompatible === true) return keep("NLTK-compatible model");
+  if (base.semi !== undefined && base.semi !== "none") return keep("unlabelled learning needs the first-order model");
+  const sentences = documents.reduce((n, d) => n + d.sentences.filter((s) => s.words.length > 0).length, 0);
+  if (sentences < 2 * k) return keep(`too few sentences (${sentences}) for ${k}-fold selection`);
+  const { folds } = planFolds(documents, k);
+  const scores = candidates.map((candidate) => {
+    const config: Partial<TrainingConfig> = { ...base, ...candidate.config, calibration: "none", semi: "none" };
+    let total = 0;
+    folds.forEach((heldOut, f) => {
+      const { model } = trainTagger(folds.filter((_, g) => g !== f).flat(), config);
+      const result = evaluateModel(model, headOf(heldOut, budget));
+      total += result.entities === null ? result.tokenAccuracy : result.entities.overall.f1;
+    });
+    return { name: candidate.name, score: total / k };
+  });
+  let best = 0;
+  scores.forEach((s, i) => {
+    if (s.score > scores[best].score) best = i;
+  });
+  return { chosen: candidates[best], scores, skipped: null };
+}
