@@ -76,6 +76,22 @@ export const notFoundHandler: RequestHandler = (req, _res, next) => {
   next(new AppError(404, "not_found", `No route for ${req.method} ${req.originalUrl.split("?")[0]}.`));
 };
 
+const CONNECTION_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "EHOSTUNREACH", "ENOTFOUND"]);
+
+/**
+ * True when the error says the database cannot be reached or is restarting, rather than that a
+ * query was wrong: connection refused or cut, SQLSTATE class 08 (connection exception) and 57P0x
+ * (shutdown, crash, starting up), or no pooled connection within the acquire timeout.
+ */
+export function isDatabaseUnavailable(err: unknown): boolean {
+  const e = err as { code?: unknown; name?: unknown; message?: unknown } | null;
+  if (!e || typeof e !== "object") return false;
+  const code = typeof e.code === "string" ? e.code : "";
+  if (CONNECTION_CODES.has(code) || code.startsWith("08") || /^57P0[1-3]$/.test(code)) return true;
+  if (e.name === "KnexTimeoutError") return true;
+  return typeof e.message === "string" && /^Connection terminated/.test(e.message);
+}
+
 /** The one place errors become responses: `{ error: { code, message, details } }`. */
 export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
   if (res.headersSent) {
@@ -101,6 +117,14 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
   if (status >= 400 && status < 500) {
     const message = err?.type === "entity.parse.failed" ? "The request body is not valid JSON." : "The request is not valid.";
     res.status(status).json({ error: { code: "bad_request", message, details: null } });
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    req.log?.warn({ err }, "database unavailable");
+    res.setHeader("Retry-After", "2");
+    res.status(503).json({
+      error: { code: "service_unavailable", message: "The service is briefly unavailable; nothing was changed. Try again in a moment.", details: null },
+    });
     return;
   }
   req.log?.error({ err }, "unhandled error");

@@ -10,7 +10,7 @@ import { extractFile } from "./extract/extract-file";
 import { FileRefusal } from "./extract/refusal";
 import { getUploadLimits } from "./upload-limits";
 import type { ExtractJobData } from "./uploads.service";
-import { type ClaimedFile, type FileOutcome, type UploadRow, claimFiles, findFileContent, findUpload, finishFiles } from "./uploads.repository";
+import { type ClaimedFile, type FileOutcome, type UploadRow, claimFiles, findFileContent, findUpload, finishFiles, lockUnfinishedFiles } from "./uploads.repository";
 
 type FileWork = { file: ClaimedFile; outcome: FileOutcome; docs: DocumentToImport[] };
 
@@ -55,16 +55,26 @@ async function readFile(file: ClaimedFile, organizationId: string, upload: Uploa
   }
 }
 
-async function store(organizationId: string, upload: UploadRow, types: EntityType[], work: FileWork[]): Promise<void> {
-  await defaultDb.transaction(async (trx) => {
+/**
+ * Writes the files' documents and outcomes in one transaction, after locking the file rows: a file
+ * that another run of the job (a retry, or a duplicate running at the same time) finished
+ * meanwhile is left as that run wrote it. Without the lock, a run that claimed a file just before
+ * another stored it would find its bytes gone and mark it refused over its stored documents.
+ * Returns the ids of the files this run wrote.
+ */
+async function store(organizationId: string, upload: UploadRow, types: EntityType[], work: FileWork[]): Promise<string[]> {
+  return defaultDb.transaction(async (trx) => {
+    const open = await lockUnfinishedFiles(organizationId, work.map((w) => w.file.id), trx);
+    const mine = work.filter((w) => open.has(w.file.id));
     await importDocuments(
       organizationId,
       upload.corpusId,
-      work.flatMap((w) => w.docs),
+      mine.flatMap((w) => w.docs),
       { spanMode: upload.spanMode, userId: upload.createdBy, types },
       trx,
     );
-    await finishFiles(organizationId, work.map((w) => w.outcome), trx);
+    await finishFiles(organizationId, mine.map((w) => w.outcome), trx);
+    return mine.map((w) => w.file.id);
   });
 }
 
@@ -73,7 +83,8 @@ async function store(organizationId: string, upload: UploadRow, types: EntityTyp
  * spans) or refused with a reason, then all of the group's documents and file states are written
  * in one transaction. If that fails on one document's data (for instance text PostgreSQL cannot
  * index), the files are written one by one so that only the culprit fails. Files already finished
- * are skipped and documents are unique per (file, index), so a retried job adds nothing twice.
+ * are skipped (when claimed, and again under a row lock when stored) and documents are unique per
+ * (file, index), so a retried or duplicated job adds nothing twice and never undoes another's work.
  */
 export async function processFileGroup(data: ExtractJobData): Promise<void> {
   const { organizationId, corpusId, uploadId, fileIds } = data;
@@ -92,13 +103,14 @@ export async function processFileGroup(data: ExtractJobData): Promise<void> {
   const work: FileWork[] = [];
   for (const file of claimed) work.push(await readFile(file, organizationId, upload, types));
 
+  const stored: string[] = [];
   try {
-    await store(organizationId, upload, types, work);
+    stored.push(...(await store(organizationId, upload, types, work)));
   } catch (err) {
     if (!isDataError(err)) throw err;
     for (const w of work) {
       try {
-        await store(organizationId, upload, types, [w]);
+        stored.push(...(await store(organizationId, upload, types, [w])));
       } catch (fileErr) {
         if (!isDataError(fileErr)) throw fileErr;
         const message = (fileErr as Error).message.split(" - ").pop() ?? "a database limit";
@@ -108,6 +120,6 @@ export async function processFileGroup(data: ExtractJobData): Promise<void> {
       }
     }
   }
-  // The corpus's suggester (if any) pre-annotates the new documents.
-  await suggestForUploadedFiles(organizationId, corpusId, claimed.map((f) => f.id));
+  // The corpus's suggester (if any) pre-annotates the new documents (once: only the run that stored them).
+  await suggestForUploadedFiles(organizationId, corpusId, stored);
 }

@@ -174,6 +174,22 @@ export async function findFileContent(organizationId: string, fileId: string, db
   return r?.content ?? null;
 }
 
+/**
+ * Locks the files (in id order, so two jobs never deadlock) and returns those still unfinished.
+ * A job that claimed a file which another job finished meanwhile gets it back here no longer: it
+ * must write neither documents nor an outcome for it.
+ */
+export async function lockUnfinishedFiles(organizationId: string, fileIds: string[], db: Db): Promise<Set<string>> {
+  if (!fileIds.length) return new Set();
+  const rows: Array<{ id: string; state: FileState }> = await db("upload_files")
+    .where("organization_id", organizationId)
+    .whereRaw("id = ANY(?::uuid[])", [fileIds])
+    .orderBy("id")
+    .forUpdate()
+    .select("id", "state");
+  return new Set(rows.filter((r) => r.state === "queued" || r.state === "processing").map((r) => r.id));
+}
+
 export type FileOutcome = { id: string; state: "ready" | "failed"; error: string | null; problems: FileProblem[]; documentsCreated: number };
 
 /** Records how each file ended, and drops its bytes (the documents now hold the text). */
