@@ -40,6 +40,8 @@ export PUBLIC_URL="${PUBLIC_URL:-http://127.0.0.1:$PORT}"
 export WEB_DIST="$ROOT/apps/web/dist"
 export MAIL_CATCHER_URL="http://127.0.0.1:$MAIL_CATCHER_PORT"
 export UPLOAD_DIR="$DATA_DIR/uploads"
+# The payments fake keeps the demo's subscription and invoices here, so a second start still knows them.
+export PAYMENTS_STATE_FILE="${PAYMENTS_STATE_FILE:-$DATA_DIR/payments-fake.json}"
 
 say "migrating the database"
 (cd "$ROOT/apps/api" && "$ROOT/node_modules/.bin/tsx" src/db/migrate-cli.ts latest) || fail "migrations failed"

@@ -1,5 +1,7 @@
 import { randomBytes } from "node:crypto";
+import fs from "node:fs";
 import http from "node:http";
+import path from "node:path";
 import type { AddressInfo } from "node:net";
 import { renderCheckoutPage } from "./checkout-page";
 import { type FormValue, list, obj, parseFormBody, str, stringMap } from "./form-body";
@@ -45,7 +47,36 @@ export type PaymentsFakeOptions = {
   webhookUrl?: string | null;
   /** Prices the fake knows: id → unit amount (minor units) and currency, billed monthly. */
   prices?: Record<string, { unitAmount: number; currency: string }>;
+  /**
+   * A JSON file holding the customers, checkout sessions, subscriptions and invoices, read at start
+   * and rewritten (atomically) after every change, so a restarted fake still knows them. Without
+   * it the fake keeps its state in memory only.
+   */
+  stateFile?: string;
 };
+
+type SavedState = { version: 1; invoiceNumber: number; customers: Json[]; sessions: Json[]; subscriptions: Json[]; invoices: Json[] };
+
+function readState(file: string): SavedState | null {
+  let text: string;
+  try {
+    text = fs.readFileSync(file, "utf8");
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === "ENOENT") return null;
+    throw err;
+  }
+  const state = JSON.parse(text) as SavedState;
+  if (state.version !== 1) throw new Error(`payments fake: ${file} has an unknown state version ${String(state.version)}`);
+  return state;
+}
+
+/** Writes beside the target and renames over it, so a crash leaves the old file or the new one, never half of one. */
+function writeState(file: string, state: SavedState): void {
+  fs.mkdirSync(path.dirname(file), { recursive: true });
+  const tmp = `${file}.${process.pid}.tmp`;
+  fs.writeFileSync(tmp, JSON.stringify(state));
+  fs.renameSync(tmp, file);
+}
 
 const PERIOD_SECONDS = 30 * 24 * 60 * 60;
 const API_VERSION = "2026-10-28.endive";
@@ -68,7 +99,7 @@ const missing = (what: string, id: string) => new FakeError(404, "invalid_reques
  * A local stand-in for the payments provider: customers, checkout sessions with a hosted test
  * page, subscriptions with a seat quantity, invoices, and signed webhook events. It answers the
  * requests the official SDK makes for Tagloom with the JSON shapes the SDK reads, keeps its state
- * in memory and listens on 127.0.0.1 only.
+ * in memory (and in `stateFile` when given) and listens on 127.0.0.1 only.
  */
 export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Promise<PaymentsFake> {
   const secretKey = options.secretKey ?? "sk_test_tagloom_local";
@@ -88,6 +119,26 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
   const deliveryLog: Delivery[] = [];
   let chain: Promise<unknown> = Promise.resolve();
   let invoiceNumber = 0;
+  const stateFile = options.stateFile ?? null;
+  const saved = stateFile ? readState(stateFile) : null;
+  if (saved) {
+    for (const c of saved.customers) customers.set(c.id, c);
+    for (const x of saved.sessions) sessions.set(x.id, x);
+    for (const x of saved.subscriptions) subscriptions.set(x.id, x);
+    for (const x of saved.invoices) invoices.set(x.id, x);
+    invoiceNumber = saved.invoiceNumber;
+  }
+  function persist(): void {
+    if (!stateFile) return;
+    writeState(stateFile, {
+      version: 1,
+      invoiceNumber,
+      customers: [...customers.values()],
+      sessions: [...sessions.values()],
+      subscriptions: [...subscriptions.values()],
+      invoices: [...invoices.values()],
+    });
+  }
 
   const now = () => Math.floor(Date.now() / 1000);
   const newId = (prefix: string) => `${prefix}_${randomBytes(12).toString("hex")}`;
@@ -414,11 +465,17 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
     req.on("end", () => {
       const url = new URL(req.url ?? "/", "http://localhost");
       const text = Buffer.concat(chunks).toString("utf8");
+      // Saved before answering, so whoever saw the answer can restart the fake and find the change.
+      const save = () => {
+        if (req.method !== "GET") persist();
+      };
       const sendJson = (status: number, body: unknown) => {
+        save();
         res.writeHead(status, { "Content-Type": "application/json", "Request-Id": newId("req") });
         res.end(JSON.stringify(body));
       };
       const sendHtml = (status: number, html: string) => {
+        save();
         res.writeHead(status, { "Content-Type": "text/html; charset=utf-8" });
         res.end(html);
       };
@@ -431,6 +488,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
             if (req.method === "POST") {
               const result = payCheckout(s.id);
               if (result.ok && result.redirect) {
+                save();
                 res.writeHead(303, { Location: result.redirect });
                 return res.end();
               }
@@ -514,9 +572,16 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
     events: () => [...events],
     deliveries: () => [...deliveryLog],
     held: () => [...heldEvents],
-    endPeriod,
+    endPeriod: (id) => {
+      endPeriod(id);
+      persist();
+    },
     subscription: (id) => subscriptions.get(id),
-    payCheckout,
+    payCheckout: (id) => {
+      const result = payCheckout(id);
+      persist();
+      return result;
+    },
     async stop() {
       await chain.catch(() => undefined);
       server.closeAllConnections();
