@@ -219,7 +219,7 @@ function trainFromArguments(values: Values): { model: TaggerModel; seconds: numb
   const { documents } = readLabelled(files, given.scheme);
   const unlabelled = (values.unlabelled ?? []).flatMap((file) => readTokens(file, readText(file)));
   const started = process.hrtime.bigint();
-  const config = select === "cv" ? { ...given, ...selectConfiguration(documents, given).chosen.config } : given;
+  const config = select === "cv" ? { ...selectConfiguration(documents, given).chosen.config, ...given } : given;
   const clock = () => Number(process.hrtime.bigint()) / 1e6;
   const { model, history } = trainTagger(documents, config, { unlabelled, now: clock });
   for (const report of history) {
