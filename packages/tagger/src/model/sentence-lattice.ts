@@ -27,7 +27,13 @@ import type { TaggerModel } from "./tagger-model";
 
 /** Most cached word types and previous-symbol matrices before a cache starts afresh (bounds memory). */
 const MAX_WORD_ENTRIES = 1 << 17;
-const MAX_PREVIOUS_ENTRIES = 1 << 13;
+/**
+ * Previous-symbol matrices are bounded by their total size (K² numbers each, three arrays), so a
+ * small tag set keeps a matrix for every symbol of a typical vocabulary instead of starting
+ * afresh every few sentences (which recomputed each matrix's Witten–Bell rows and K² exps).
+ */
+const MAX_PREVIOUS_NUMBERS = 1 << 22;
+const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PREVIOUS_NUMBERS / (K * K)));
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {
@@ -297,7 +303,10 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const out = entry * K;
   for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
   if (symbol >= model.vocabulary.words.length && model.suffix !== null) {
-    suffixLogRatio(model.suffix, word, suffixGroupOf(model.vocabulary, word, first), cache.ratio, cache.scratch);
+    // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
+    // so the class tests run once; without classes the group is its capitalisation.
+    const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
+    suffixLogRatio(model.suffix, word, group, cache.ratio, cache.scratch);
     for (let k = 0; k < K; k++) cache.wordLog[out + k] += cache.ratio[k];
   }
   for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
@@ -430,7 +439,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   if (T < 2) return lattice;
   reservePatches(cache, T);
   // Start afresh between sentences only: the steps of this one point into the slots.
-  if (cache.previousCount + T > MAX_PREVIOUS_ENTRIES) {
+  if (cache.previousCount + T > previousLimit(K)) {
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
   }
@@ -464,10 +473,9 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const exps = cache.previousExp;
     const out = t * KK;
     const src = matrix * KK;
-    for (let x = 0; x < KK; x++) {
-      logs[out + x] = logs[src + x];
-      exps[out + x] = exps[src + x];
-    }
+    // Native block copies (memmove), not K² element loads and stores.
+    logs.copyWithin(out, src, src + KK);
+    exps.copyWithin(out, src, src + KK);
     stepIndex[t] = t;
     const base = cache.previousBase;
     const from = slot * KK;
