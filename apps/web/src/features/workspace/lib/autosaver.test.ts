@@ -89,6 +89,47 @@ describe("Autosaver", () => {
     expect(saver.version).toBe(1);
   });
 
+  it("while the database restarts (503) retries after 1, 2 and 4 s and then saves the latest work once", async () => {
+    const store = newStore();
+    const calls: SaveAssignmentInput[] = [];
+    let down = 3;
+    const saver = new Autosaver({
+      store,
+      version: 0,
+      save: async (body) => {
+        calls.push(body);
+        if (down-- > 0) throw new ApiError(503, "service_unavailable", "The service is briefly unavailable; nothing was changed.");
+        return { version: body.version + 1, state: "in_progress", updatedAt: "" };
+      },
+    });
+    store.moveCursor(0);
+    store.label("PERSON");
+    // The first save goes out after the 800 ms pause.
+    await vi.advanceTimersByTimeAsync(800);
+    expect(calls).toHaveLength(1);
+    expect(saver.status).toMatchObject({ kind: "retrying", reason: "The server could not save just now." });
+    // An edit during the outage waits for the retry instead of starting its own save.
+    store.moveCursor(6);
+    store.label("PLACE");
+    await vi.advanceTimersByTimeAsync(999);
+    expect(calls).toHaveLength(1);
+    await vi.advanceTimersByTimeAsync(1);
+    expect(calls).toHaveLength(2);
+    await vi.advanceTimersByTimeAsync(1999);
+    expect(calls).toHaveLength(2);
+    await vi.advanceTimersByTimeAsync(1);
+    expect(calls).toHaveLength(3);
+    await vi.advanceTimersByTimeAsync(4000);
+    expect(calls).toHaveLength(4);
+    expect(saver.status.kind).toBe("saved");
+    expect(calls.map((c) => c.version)).toEqual([0, 0, 0, 0]);
+    expect(calls[3]!.spans.map((s) => s.type)).toEqual(["PERSON", "PLACE"]);
+    expect(saver.version).toBe(1);
+    expect(saver.dirty).toBe(false);
+    await vi.advanceTimersByTimeAsync(20_000);
+    expect(calls).toHaveLength(4);
+  });
+
   it("stops and turns read-only when the assignment was submitted elsewhere", async () => {
     const store = newStore();
     const saver = new Autosaver({
