@@ -58,17 +58,26 @@ async function signInAs(email: string): Promise<{ page: Page; orgId: string; clo
 }
 
 describe("the demo, role by role", () => {
-  it("the admin invites one more member into the last paid seat", async () => {
+  it("the admin finds the demo's e-mails in the Outbox, adds a seat on the payments fake and invites one more member", async () => {
     const { page, orgId, close } = await signInAs("admin@demo.tagloom.test");
+    // The seed's invitation and the batches' assignment notices went through SMTP to the catcher.
+    await page.goto("/dev/outbox");
+    await page.getByText(/You are invited to Quenmarrow Contract Desk/).first().waitFor();
+    await page.getByText(/fennick\.orlavie@demo\.tagloom\.test/).first().waitFor();
+    await page.getByText(/annotator3@demo\.tagloom\.test/).first().waitFor();
+    // Seven members and the pending invitation fill the eight paid seats.
     await page.goto(`/o/${orgId}/billing`);
-    await page.getByText("7 used of 8 paid").waitFor();
+    await page.getByText("8 used of 8 paid").waitFor();
+    await page.getByLabel("Seats").fill("9");
+    await page.getByRole("button", { name: "Save seats" }).click();
+    await page.getByText("8 used of 9 paid").waitFor();
     await page.goto(`/o/${orgId}/members`);
     await page.getByText("Brannic Tuvel").first().waitFor();
     await page.getByLabel("E-mail address").fill("newcomer@demo.tagloom.test");
     await page.getByRole("button", { name: "Send invitation" }).click();
     await page.getByText("newcomer@demo.tagloom.test").first().waitFor();
     await page.goto(`/o/${orgId}/billing`);
-    await page.getByText("8 used of 8 paid").waitFor();
+    await page.getByText("9 used of 9 paid").waitFor();
     await close();
   });
 

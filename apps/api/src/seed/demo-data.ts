@@ -14,3 +14,6 @@ export const demoUsers: { email: string; name: string; role: Role }[] = [
   { email: "annotator3@demo.tagloom.test", name: "Saevin Drolacq", role: "annotator" },
   { email: "annotator4@demo.tagloom.test", name: "Brannic Tuvel", role: "annotator" },
 ];
+
+/** Invited by the admin and not yet answered: the invitation e-mail is in the Outbox. */
+export const DEMO_PENDING_INVITEE = "fennick.orlavie@demo.tagloom.test";

@@ -75,7 +75,12 @@ describe("demo data", () => {
 
     // Seats bought through checkout on the payments fake, its webhooks received by the API.
     const billing = await getBillingState(orgId);
-    expect(billing).toMatchObject({ plan: "per_seat", seatLimit: DEMO_SEATS, seatsUsed: 7, paymentFailed: false });
+    expect(billing).toMatchObject({ plan: "per_seat", seatLimit: DEMO_SEATS, seatsUsed: 8, paymentFailed: false });
+    // The pending invitation holds the eighth seat; its e-mail and the assignment notices were queued for the real mail path.
+    expect(await db("invitations").where({ organization_id: orgId }).pluck("email")).toEqual(["fennick.orlavie@demo.tagloom.test"]);
+    const kinds = await db("outbound_emails").where({ organization_id: orgId }).pluck("kind");
+    expect(kinds.filter((k) => k === "invitation")).toHaveLength(1);
+    expect(kinds.filter((k) => k === "batch_assigned")).toHaveLength(4);
     expect(billing.invoices.filter((i) => i.status === "paid")).toHaveLength(1);
     expect(billing.invoices[0]!.amountPaid).toBeGreaterThan(0);
     const webhooks = await db("billing_webhook_events").where({ organization_id: orgId }).pluck("type");

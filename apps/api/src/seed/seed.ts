@@ -10,6 +10,7 @@ import { settleDocument } from "@/annotation/review.service";
 import { createCorpus } from "@/corpora/corpora.service";
 import { createEntityType } from "@/corpora/entity-types.service";
 import { db } from "@/db/knex";
+import { createInvitation } from "@/invitations/invitations.service";
 import { addMember } from "@/members/members.service";
 import { createOrganizationRecord } from "@/orgs/orgs.service";
 import type { ReceivedFile } from "@/uploads/upload-storage";
@@ -17,7 +18,7 @@ import { receiveUpload } from "@/uploads/uploads.service";
 import { simulateAnnotator } from "./demo-annotators";
 import { seedBilling } from "./demo-billing";
 import { buildDemoDocuments, demoEntityTypes, type DemoDocument } from "./demo-corpus";
-import { DEMO_ORGANIZATION, DEMO_PASSWORD, demoUsers } from "./demo-data";
+import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PENDING_INVITEE, demoUsers } from "./demo-data";
 import { buildDemoDocx, buildDemoPdf } from "./demo-files";
 import { seedTaggers } from "./demo-taggers";
 import { seedApiToken } from "./demo-token";
@@ -36,7 +37,7 @@ export type SeedResult =
  * Loads the demo organization once: seven members in four roles, a corpus of 400 invented supply
  * documents (a quarter gold with a test split, some uploaded as generated PDF and Word files), a
  * batch under review with two annotators' disagreements and a batch in progress, eight paid seats
- * with a paid invoice, two trained taggers (the better one the suggester, its suggestions on the
+ * with a paid invoice (the eighth held by a pending invitation), two trained taggers (the better one the suggester, its suggestions on the
  * open documents) and an API token whose secret is returned once. Later runs change nothing.
  *
  * It needs the product running beside it: the payments fake and the API (for the payments
@@ -60,6 +61,9 @@ export async function seedDemoData(): Promise<SeedResult> {
   await seedReviewBatch(ctx);
   await seedBatchInProgress(ctx);
   await seedBilling(organizationId, people.admin!);
+  // One invitation waits for an answer: its e-mail goes through the real mail path to the Outbox
+  // (beside the batches' assignment notices) and it holds the last paid seat.
+  await createInvitation(organizationId, { email: DEMO_PENDING_INVITEE, role: "annotator" }, people.admin!);
   const { suggesterId } = await seedTaggers(organizationId, ctx.corpusId, people.lead!);
   const apiToken = await seedApiToken(organizationId, people.admin!);
   return { created: true, organizationId, corpusId: ctx.corpusId, suggesterId, apiToken };
