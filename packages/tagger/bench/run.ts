@@ -75,6 +75,8 @@ function tagging(): void {
   print(`   ${Math.round(tokensPerSecond).toLocaleString("en")} tokens/s (${spans.toLocaleString("en")} spans; target ≥ 1,000,000)`);
   const row = calibrationReport(join(shared, "data", "wikigold"));
   print(`   span-confidence ECE (10 equal-width bins): wikigold test ${row.test.toFixed(4)} (${row.testSpans} spans), 5-fold CV ${row.cv.toFixed(4)} (${row.cvSpans} spans); target ≤ 0.05`);
+  print(`   test ECE 95% bootstrap interval [${row.testInterval[0].toFixed(4)}, ${row.testInterval[1].toFixed(4)}]; test reliability (bin: spans, mean confidence, accuracy):`);
+  for (const b of row.testBins) if (b.count > 0) print(`     (${b.lower.toFixed(1)}, ${b.upper.toFixed(1)}]: ${b.count}, ${b.meanConfidence.toFixed(3)}, ${b.accuracy.toFixed(3)}`);
 }
 
 function brown(): void {

@@ -46,7 +46,7 @@ training options:
   --end-state on|off             model sentence ends
   --constrain-iob on|off         forbid invalid IOB2 transitions
   --unlabelled FILE --semi em|sample --iterations N --weight W --seed N
-  --calibration platt|none       span confidences calibrated on 5-fold CV of the training data (default platt)
+  --calibration platt-length|platt|none  span confidences calibrated on 5-fold CV of the training data (default platt-length: Platt with ln span length)
   --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)
   --select cv|off                choose first-order or trigram by 3-fold CV of the training data
                                  when --order, --prev-word and --context-emissions are unset (default cv)`;
@@ -165,7 +165,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values.weight !== undefined) config.weight = number("weight", values.weight, (n) => n >= 0, "a number ≥ 0");
   if (values.seed !== undefined) config.seed = number("seed", values.seed, Number.isInteger, "an integer");
   if (values.beam !== undefined) config.beam = number("beam", values.beam, (n) => n >= 1, "a number ≥ 1");
-  if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "none"] as const);
+  if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "platt-length", "none"] as const);
   if (values["nltk-compatible"] === true) config.nltkCompatible = true;
   if (config.semi !== undefined && (values.unlabelled ?? []).length === 0) throw new UsageError("--semi needs --unlabelled FILE");
   if ((values.unlabelled ?? []).length > 0 && config.semi === undefined) throw new UsageError("--unlabelled needs --semi em|sample");

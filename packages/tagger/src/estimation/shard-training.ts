@@ -211,7 +211,7 @@ export function trainFromShards(
 ): { model: TaggerModel; statistics: SufficientStatistics } {
   const resolved = resolve(config);
   const calibration =
-    resolved.calibration === "platt" && plan.scheme === "iob" && !resolved.nltkCompatible && calibrationDocuments.length > 0
+    resolved.calibration !== "none" && plan.scheme === "iob" && !resolved.nltkCompatible && calibrationDocuments.length > 0
       ? fitSpanCalibration(calibrationDocuments, resolved)
       : null;
   const vocabulary = vocabularyOf(plan, resolved);

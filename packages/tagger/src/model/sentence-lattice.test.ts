@@ -72,7 +72,7 @@ describe("calibrated span confidences", () => {
       const a = tagSentence(model, words);
       const b = tagSentence(raw, words);
       expect(a.tags).toEqual(b.tags);
-      a.chunks.forEach((c, i) => expect(c.confidence).toBeCloseTo(applyPlatt(model.calibration!, b.chunks[i].confidence), 12));
+      a.chunks.forEach((c, i) => expect(c.confidence).toBeCloseTo(applyPlatt(model.calibration!, b.chunks[i].confidence, b.chunks[i].end - b.chunks[i].start), 12));
     }
   });
 });

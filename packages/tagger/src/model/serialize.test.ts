@@ -55,7 +55,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2 and 3/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3 and 4/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -99,16 +99,45 @@ describe("schema version 1", () => {
 describe("schema version 3", () => {
   it("names the informal word classes, which a version-2 file cannot", () => {
     const json = serializeModel(trainTagger(tinyDocuments, { wordClasses: "informal" }).model);
-    expect(json.schemaVersion).toBe(3);
+    expect(json.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
     expect(json.vocabulary.wordClasses).toBe("informal");
     expect(() => loadModel({ ...json, schemaVersion: 2 })).toThrow(/vocabulary.wordClasses/);
   });
 
   it("a version-2 file with extended classes loads and tags as a freshly trained extended model", () => {
-    const { model } = trainTagger(tinyDocuments, { wordClasses: "extended" });
+    // Plain Platt calibration: a version-2 writer could not store the span-length coefficient.
+    const { model } = trainTagger(tinyDocuments, { wordClasses: "extended", calibration: "platt" });
     const v2 = { ...serializeModel(model), schemaVersion: 2 };
     const loaded = loadModel(JSON.parse(JSON.stringify(v2)));
     expect(loaded.vocabulary.scheme).toBe("extended");
+    for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+  });
+});
+
+describe("schema version 4", () => {
+  const documents = [...tinyDocuments, ...tinyDocuments, ...tinyDocuments];
+  const probe = documents.flatMap((d) => d.sentences.map((s) => s.words));
+
+  it("stores the span-length coefficient of the calibration and reads it back to the same confidences", () => {
+    const { model } = trainTagger(documents, { calibration: "platt-length" });
+    expect(model.calibration).not.toBeNull();
+    const json = serializeModel(model);
+    expect(json.schemaVersion).toBe(4);
+    expect(json.calibration?.c).toBe(model.calibration!.c);
+    const loaded = loadModel(JSON.parse(JSON.stringify(json)));
+    for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+    const missing = JSON.parse(JSON.stringify(json));
+    delete missing.calibration.c;
+    expect(() => loadModel(missing)).toThrow(/calibration.c/);
+  });
+
+  it("a version-3 file (Platt calibration without c) loads with c = 0 and tags identically", () => {
+    // The version-3 writer stored { method, a, b }; a plain-Platt model is exactly what it wrote.
+    const { model } = trainTagger(documents, { calibration: "platt" });
+    const v3 = JSON.parse(JSON.stringify({ ...serializeModel(model), schemaVersion: 3 }));
+    delete v3.calibration.c;
+    const loaded = loadModel(v3);
+    expect(loaded.calibration).toEqual({ method: "platt", a: model.calibration!.a, b: model.calibration!.b, c: 0 });
     for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
   });
 });

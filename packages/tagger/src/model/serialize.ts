@@ -8,12 +8,13 @@ import type { PlattCalibration } from "../estimation/platt";
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 3;
+export const MODEL_SCHEMA_VERSION = 4;
 /**
  * Versions this release reads: version 1 had no calibration (raw chunk marginals); version 2
- * could not name the `informal` word classes (version 3); a version-1 or -2 file reads as before.
+ * could not name the `informal` word classes (version 3); version 3's calibration had no span
+ * length coefficient `c` (version 4; an older file reads with c = 0, i.e. as before).
  */
-const READABLE_VERSIONS = [1, 2, 3];
+const READABLE_VERSIONS = [1, 2, 3, 4];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -31,8 +32,8 @@ export type SerializedModel = {
   vocabulary: { words: string[]; classes: string[]; wordClasses: TrainingConfig["wordClasses"] };
   config: TrainingConfig;
   summary: DataSummary;
-  /** Span-confidence calibration (Platt scaling, a and b), or null for raw marginals. Version 2. */
-  calibration: { method: "platt"; a: number; b: number } | null;
+  /** Span-confidence calibration (Platt scaling, a and b; version 2), c on ln(span length) (version 4), or null. */
+  calibration: { method: "platt"; a: number; b: number; c: number } | null;
   parameters: {
     kind: "sufficient-statistics";
     states: number;
@@ -85,7 +86,7 @@ export function serializeModel(model: TaggerModel): SerializedModel {
     vocabulary: { words: [...model.vocabulary.words], classes: [...model.vocabulary.classes], wordClasses: model.vocabulary.scheme },
     config: JSON.parse(JSON.stringify(model.config)) as TrainingConfig,
     summary: JSON.parse(JSON.stringify(model.summary)) as DataSummary,
-    calibration: model.calibration === null ? null : { method: "platt", a: model.calibration.a, b: model.calibration.b },
+    calibration: model.calibration === null ? null : { method: "platt", a: model.calibration.a, b: model.calibration.b, c: model.calibration.c },
     parameters: {
       kind: "sufficient-statistics",
       states: s.states,
@@ -262,7 +263,7 @@ export function loadModel(json: unknown): TaggerModel {
   if (version >= 2 && root.calibration !== null) {
     const c = object(root.calibration, "calibration");
     if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
-    calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b") };
+    calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b"), c: version >= 4 ? finite(c.c, "calibration.c") : 0 };
   }
   return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration });
 }

@@ -40,7 +40,7 @@ export function trainTagger(
 ): { model: TaggerModel; history: IterationReport[] } {
   const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
   const data = prepareTrainingData(documents, resolved);
-  const calibration = resolved.calibration === "platt" && data.scheme === "iob" && !resolved.nltkCompatible ? fitSpanCalibration(documents, resolved) : null;
+  const calibration = resolved.calibration !== "none" && data.scheme === "iob" && !resolved.nltkCompatible ? fitSpanCalibration(documents, resolved) : null;
   const model = assembleModel({
     calibration,
     config: resolved,
@@ -69,7 +69,8 @@ const CALIBRATION_FOLDS = 5;
 /**
  * Platt scaling fitted on the raw chunk marginals of CALIBRATION_FOLDS-fold cross-validation over
  * the training documents (each fold's model trained on the other folds, same configuration,
- * supervised only); null when there are too few sentences for the folds or no predicted span.
+ * supervised only), with the log span length as an extra input for `platt-length`; null when
+ * there are too few sentences for the folds or no predicted span.
  */
 export function fitSpanCalibration(documents: readonly ColumnDocument[], config: TrainingConfig): PlattCalibration | null {
   if (documents.reduce((n, d) => n + d.sentences.length, 0) < CALIBRATION_FOLDS) return null;
@@ -77,6 +78,7 @@ export function fitSpanCalibration(documents: readonly ColumnDocument[], config:
   const inner: TrainingConfig = { ...config, calibration: "none", semi: "none" };
   const confidences: number[] = [];
   const correct: boolean[] = [];
+  const lengths: number[] = [];
   plan.folds.forEach((heldOut, f) => {
     const train = plan.folds.filter((_, g) => g !== f).flat();
     if (train.every((d) => d.sentences.every((s) => s.words.length === 0))) return;
@@ -87,11 +89,12 @@ export function fitSpanCalibration(documents: readonly ColumnDocument[], config:
         for (const c of tagSentence(model, sentence.words, { sentenceIndex: i }).chunks) {
           confidences.push(c.confidence);
           correct.push(gold.has(`${c.type} ${c.start} ${c.end}`));
+          lengths.push(c.end - c.start);
         }
       });
     }
   });
-  return confidences.length === 0 ? null : fitPlatt(confidences, correct);
+  return confidences.length === 0 ? null : fitPlatt(confidences, correct, config.calibration === "platt-length" ? lengths : undefined);
 }
 
 /** A decoded entity chunk with its marginal probability. */
@@ -123,14 +126,14 @@ export function tagSentence(model: TaggerModel, words: readonly string[], option
   const { logLikelihood } = sentencePosteriors(model, words, s);
   if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
   const chunks = tagsToChunks(tags);
-  const confidences = calibrated(model, chunkConfidences(model, words, s, chunks, logLikelihood));
+  const confidences = calibrated(model, chunks, chunkConfidences(model, words, s, chunks, logLikelihood));
   return { tags, chunks: chunks.map((c, i) => ({ ...c, confidence: confidences[i] })), logLikelihood };
 }
 
 /** Raw chunk marginals through the model's calibration map (in place), if it has one. */
-function calibrated(model: TaggerModel, confidences: number[]): number[] {
+function calibrated(model: TaggerModel, chunks: readonly { start: number; end: number }[], confidences: number[]): number[] {
   const map = model.calibration;
-  if (map !== null) for (let c = 0; c < confidences.length; c++) confidences[c] = applyPlatt(map, confidences[c]);
+  if (map !== null) for (let c = 0; c < confidences.length; c++) confidences[c] = applyPlatt(map, confidences[c], chunks[c].end - chunks[c].start);
   return confidences;
 }
 
@@ -163,7 +166,7 @@ function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSe
   for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
   if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
   const chunks = tagsToChunks(tags);
-  const confidences = calibrated(model, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
+  const confidences = calibrated(model, chunks, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
   return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
 }
 
