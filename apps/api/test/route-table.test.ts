@@ -1,7 +1,8 @@
-import type { Express } from "express";
+import express, { type Express } from "express";
 import { describe, expect, it } from "vitest";
+import { z } from "zod";
 import { createApp } from "@/app";
-import { type RouteMeta, metaOf } from "@/security/route-meta";
+import { type RouteMeta, idParams, metaOf, noQuery, validate } from "@/security/route-meta";
 import { routeCatalog } from "./support/route-catalog";
 import type { TenantFixture } from "./support/tenant-fixture";
 
@@ -50,6 +51,30 @@ const PUBLIC = new Set([
   "get /api/invitations/:token", // the invitation token is the credential
 ]);
 
+/**
+ * Routes that do not validate their input with zod: the query on every route, the body on every
+ * route but GET, and the params on every route with a path parameter (each parameter named in
+ * the params object). The organization id is left out: orgScope checks it (a malformed one is
+ * a 404, like an organization that does not exist).
+ */
+function unvalidated(found: readonly Found[]): string[] {
+  const out: string[] = [];
+  for (const r of found) {
+    const input = r.meta.input;
+    const missing: string[] = [];
+    if (!input?.query) missing.push("query");
+    if (r.method !== "get" && !input?.body) missing.push("body");
+    const names = [...r.path.matchAll(/:([A-Za-z]+)/g)].map((m) => m[1]!).filter((n) => n !== "orgId");
+    if (names.length) {
+      const shape = input?.params instanceof z.ZodObject ? (input.params.shape as Record<string, unknown>) : {};
+      const uncovered = names.filter((n) => !(n in shape));
+      if (uncovered.length) missing.push(`params ${uncovered.join(", ")}`);
+    }
+    if (missing.length) out.push(`${r.method} ${r.path}: ${missing.join("; ")}`);
+  }
+  return out;
+}
+
 const norm = (p: string) => p.replace(/\?.*$/, "").replace(/:[A-Za-z]+/g, "*").replace(/\{[A-Za-z]+\}/g, "*").replace(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/gi, "*").replace(/\/$/, "");
 /** A fixture whose every id (at any depth, e.g. f.ids.corpusId) prints as {name}. */
 const placeholder = (name: string): unknown =>
@@ -82,5 +107,19 @@ describe("route table", () => {
       .map((r) => ({ route: `${r.method} ${r.path}`, app: [...new Set(["admin", ...(r.meta.roles as string[])])].sort(), catalog: declared.get(`${r.method} ${norm(r.path)}`) }))
       .filter((d) => JSON.stringify(d.app) !== JSON.stringify(d.catalog));
     expect(differ).toEqual([]);
+  });
+
+  it("every route validates its query, body and params with zod", () => {
+    expect(unvalidated(routes)).toEqual([]);
+  });
+
+  it("the check finds a route added without validation, or with a parameter its schema leaves out", () => {
+    const app = express();
+    const r = express.Router();
+    r.post("/things", (_req, res) => void res.end());
+    r.get("/things/:thingId/parts/:partId", validate({ params: idParams("thingId"), query: noQuery }), (_req, res) => void res.end());
+    r.get("/things", validate({ query: noQuery }), (_req, res) => void res.end());
+    app.use("/api", r);
+    expect(unvalidated(routesOf(app))).toEqual(["post /api/things: query; body", "get /api/things/:thingId/parts/:partId: params partId"]);
   });
 });

@@ -5,6 +5,7 @@ import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { createBatch, getBatchDetail, getBatchesPage } from "./batches.service";
 import { getBatchAgreement } from "./review.service";
+import { idParams, noQuery, validate } from "@/security/route-meta";
 
 const batchListQuerySchema = z.object({
   corpusId: z.uuid("Not a corpus id.").optional(),
@@ -15,25 +16,25 @@ const batchListQuerySchema = z.object({
 /** Batches (managers and admins), below /orgs/:orgId. */
 export const batchesRouter = Router({ mergeParams: true });
 
-batchesRouter.get("/batches", allow("manager"), async (req, res) => {
+batchesRouter.get("/batches", allow("manager"), validate({ query: batchListQuerySchema }), async (req, res) => {
   const query = parseOrThrow(batchListQuerySchema, req.query, "query");
   res.json(await getBatchesPage(memberOf(req).organizationId, query));
 });
 
-batchesRouter.get("/corpora/:corpusId/batches", allow("manager"), async (req, res) => {
+batchesRouter.get("/corpora/:corpusId/batches", allow("manager"), validate({ params: idParams("corpusId"), query: batchListQuerySchema.omit({ corpusId: true }) }), async (req, res) => {
   const query = parseOrThrow(batchListQuerySchema.omit({ corpusId: true }), req.query, "query");
   res.json(await getBatchesPage(memberOf(req).organizationId, { ...query, corpusId: String(req.params.corpusId) }));
 });
 
-batchesRouter.post("/corpora/:corpusId/batches", allow("manager"), async (req, res) => {
+batchesRouter.post("/corpora/:corpusId/batches", allow("manager"), validate({ params: idParams("corpusId"), query: noQuery, body: createBatchInputSchema }), async (req, res) => {
   const input = parseOrThrow(createBatchInputSchema, req.body);
   res.status(201).json(await createBatch(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 
-batchesRouter.get("/corpora/:corpusId/batches/:batchId", allow("manager"), async (req, res) => {
+batchesRouter.get("/corpora/:corpusId/batches/:batchId", allow("manager"), validate({ params: idParams("corpusId", "batchId"), query: noQuery }), async (req, res) => {
   res.json(await getBatchDetail(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.batchId)));
 });
 
-batchesRouter.get("/corpora/:corpusId/batches/:batchId/agreement", allow("manager"), async (req, res) => {
+batchesRouter.get("/corpora/:corpusId/batches/:batchId/agreement", allow("manager"), validate({ params: idParams("corpusId", "batchId"), query: noQuery }), async (req, res) => {
   res.json(await getBatchAgreement(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.batchId)));
 });

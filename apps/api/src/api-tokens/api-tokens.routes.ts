@@ -3,21 +3,22 @@ import { Router } from "express";
 import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { createApiToken, listApiTokens, revokeApiToken } from "./api-tokens.service";
+import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
 
 /** Data lead and admin routes below /orgs/:orgId. */
 export const apiTokensRouter = Router({ mergeParams: true });
 
-apiTokensRouter.get("/tokens", allow("data_lead"), async (req, res) => {
+apiTokensRouter.get("/tokens", allow("data_lead"), validate({ query: noQuery }), async (req, res) => {
   res.json({ items: await listApiTokens(memberOf(req).organizationId), nextCursor: null });
 });
 
-apiTokensRouter.post("/tokens", allow("data_lead"), async (req, res) => {
+apiTokensRouter.post("/tokens", allow("data_lead"), validate({ query: noQuery, body: createApiTokenInputSchema }), async (req, res) => {
   const input = parseOrThrow(createApiTokenInputSchema, req.body);
   res.setHeader("Cache-Control", "no-store");
   res.status(201).json(await createApiToken(memberOf(req).organizationId, input, actorOf(req)));
 });
 
-apiTokensRouter.delete("/tokens/:tokenId", allow("data_lead"), async (req, res) => {
+apiTokensRouter.delete("/tokens/:tokenId", allow("data_lead"), validate({ params: idParams("tokenId"), query: noQuery, body: noBody }), async (req, res) => {
   await revokeApiToken(memberOf(req).organizationId, String(req.params.tokenId), actorOf(req));
   res.status(204).end();
 });

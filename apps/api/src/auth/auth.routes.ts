@@ -18,19 +18,20 @@ import {
   verifyEmail,
 } from "./auth.service";
 import { endSession, requireSession, startSession } from "./session.middleware";
+import { noBody, noQuery, validate } from "@/security/route-meta";
 
 /** Account routes: /auth/* and /me. `limiter` guards the routes an attacker would hammer. */
 export function authRouter(limiter: RequestHandler): Router {
   const r = Router();
 
-  r.post("/auth/sign-up", limiter, async (req, res) => {
+  r.post("/auth/sign-up", limiter, validate({ query: noQuery, body: signUpInputSchema }), async (req, res) => {
     const input = parseOrThrow(signUpInputSchema, req.body);
     const { userId, organizationId } = await signUp(input, req.ip ?? null);
     await startSession(res, userId, req.auth?.sessionId ?? null);
     res.status(201).json({ ...(await getMe(userId)), organizationId });
   });
 
-  r.post("/auth/sign-in", limiter, async (req, res) => {
+  r.post("/auth/sign-in", limiter, validate({ query: noQuery, body: signInInputSchema }), async (req, res) => {
     const input = parseOrThrow(signInInputSchema, req.body);
     const user = await signIn(input, req.ip ?? null);
     // A new session id at every sign-in (no fixation of an old cookie).
@@ -38,7 +39,7 @@ export function authRouter(limiter: RequestHandler): Router {
     res.json(await getMe(user.id));
   });
 
-  r.post("/auth/sign-out", async (req, res) => {
+  r.post("/auth/sign-out", validate({ query: noQuery, body: noBody }), async (req, res) => {
     if (req.auth) {
       await recordSignOut(req.auth.userId, req.auth.email, req.ip ?? null);
       await endSession(res, req.auth.sessionId);
@@ -46,37 +47,37 @@ export function authRouter(limiter: RequestHandler): Router {
     res.status(204).end();
   });
 
-  r.post("/auth/password-reset/request", limiter, async (req, res) => {
+  r.post("/auth/password-reset/request", limiter, validate({ query: noQuery, body: passwordResetRequestSchema }), async (req, res) => {
     const { email } = parseOrThrow(passwordResetRequestSchema, req.body);
     await requestPasswordReset(email);
     res.status(202).json({ ok: true });
   });
 
-  r.post("/auth/password-reset/confirm", limiter, async (req, res) => {
+  r.post("/auth/password-reset/confirm", limiter, validate({ query: noQuery, body: passwordResetConfirmSchema }), async (req, res) => {
     const { token, password } = parseOrThrow(passwordResetConfirmSchema, req.body);
     await confirmPasswordReset(token, password, req.ip ?? null);
     res.status(204).end();
   });
 
-  r.post("/auth/verify-email", async (req, res) => {
+  r.post("/auth/verify-email", validate({ query: noQuery, body: verifyEmailInputSchema }), async (req, res) => {
     const { token } = parseOrThrow(verifyEmailInputSchema, req.body);
     await verifyEmail(token, req.ip ?? null);
     res.status(204).end();
   });
 
-  r.post("/auth/verify-email/resend", limiter, requireSession, async (req, res) => {
+  r.post("/auth/verify-email/resend", limiter, requireSession, validate({ query: noQuery, body: noBody }), async (req, res) => {
     await resendVerification(req.auth!.userId);
     res.status(202).json({ ok: true });
   });
 
   // Whether anyone is signed in, answered 200 either way: the web app asks on every page load, and
   // a signed-out visitor is not an error (a 401 would be logged by the browser on the sign-in page).
-  r.get("/auth/session", async (req, res) => {
+  r.get("/auth/session", validate({ query: noQuery }), async (req, res) => {
     const me = req.auth ? await getMe(req.auth.userId) : null;
     res.json({ me: me ?? null });
   });
 
-  r.get("/me", async (req, res) => {
+  r.get("/me", validate({ query: noQuery }), async (req, res) => {
     if (!req.auth) throw new UnauthorizedError();
     const me = await getMe(req.auth.userId);
     if (!me) throw new UnauthorizedError();

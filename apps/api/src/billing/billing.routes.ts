@@ -4,33 +4,34 @@ import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { changeSeats, getBillingState, retryPayment, setCancelAtPeriodEnd, startCheckout } from "./billing.service";
 import { handleWebhook } from "./billing.webhooks";
+import { noBody, noQuery, rawBody, validate } from "@/security/route-meta";
 
 /** Admin routes below /orgs/:orgId. */
 export const billingRouter = Router({ mergeParams: true });
 
-billingRouter.get("/billing", allow(), async (req, res) => {
+billingRouter.get("/billing", allow(), validate({ query: noQuery }), async (req, res) => {
   res.json(await getBillingState(memberOf(req).organizationId));
 });
 
-billingRouter.post("/billing/checkout", allow(), async (req, res) => {
+billingRouter.post("/billing/checkout", allow(), validate({ query: noQuery, body: startCheckoutInputSchema }), async (req, res) => {
   const { seats } = parseOrThrow(startCheckoutInputSchema, req.body);
   res.status(201).json(await startCheckout(memberOf(req).organizationId, seats, actorOf(req)));
 });
 
-billingRouter.post("/billing/seats", allow(), async (req, res) => {
+billingRouter.post("/billing/seats", allow(), validate({ query: noQuery, body: changeSeatsInputSchema }), async (req, res) => {
   const { seats } = parseOrThrow(changeSeatsInputSchema, req.body);
   res.json(await changeSeats(memberOf(req).organizationId, seats, actorOf(req)));
 });
 
-billingRouter.post("/billing/cancel", allow(), async (req, res) => {
+billingRouter.post("/billing/cancel", allow(), validate({ query: noQuery, body: noBody }), async (req, res) => {
   res.json(await setCancelAtPeriodEnd(memberOf(req).organizationId, true, actorOf(req)));
 });
 
-billingRouter.post("/billing/resume", allow(), async (req, res) => {
+billingRouter.post("/billing/resume", allow(), validate({ query: noQuery, body: noBody }), async (req, res) => {
   res.json(await setCancelAtPeriodEnd(memberOf(req).organizationId, false, actorOf(req)));
 });
 
-billingRouter.post("/billing/retry-payment", allow(), async (req, res) => {
+billingRouter.post("/billing/retry-payment", allow(), validate({ query: noQuery, body: noBody }), async (req, res) => {
   res.json(await retryPayment(memberOf(req).organizationId, actorOf(req)));
 });
 
@@ -40,7 +41,7 @@ billingRouter.post("/billing/retry-payment", allow(), async (req, res) => {
  */
 export const billingWebhookRouter = Router();
 
-billingWebhookRouter.post("/billing/webhook", express.raw({ type: () => true, limit: "1mb" }), async (req, res) => {
+billingWebhookRouter.post("/billing/webhook", express.raw({ type: () => true, limit: "1mb" }), validate({ query: noQuery, body: rawBody }), async (req, res) => {
   const raw = Buffer.isBuffer(req.body) ? req.body : Buffer.alloc(0);
   res.json(await handleWebhook(raw, req.get("stripe-signature")));
 });

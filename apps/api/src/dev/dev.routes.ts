@@ -2,12 +2,13 @@ import type { AppMeta, OutboxMessage } from "@tagloom/contracts";
 import { Router } from "express";
 import { env } from "@/config/env";
 import { AppError, NotFoundError } from "@/errors";
+import { idParams, noQuery, validate } from "@/security/route-meta";
 
 const outboxEnabled = env.NODE_ENV !== "production" && env.MAIL_CATCHER_URL !== undefined;
 
 export const devRouter = Router();
 
-devRouter.get("/meta", (_req, res) => {
+devRouter.get("/meta", validate({ query: noQuery }), (_req, res) => {
   const meta: AppMeta = { environment: env.NODE_ENV, outbox: outboxEnabled };
   res.json(meta);
 });
@@ -26,9 +27,9 @@ async function fromCatcher<T>(path: string): Promise<T> {
 }
 
 // Development only: the messages the local SMTP catcher received. Refused in production.
-devRouter.get("/dev/outbox", async (_req, res) => {
+devRouter.get("/dev/outbox", validate({ query: noQuery }), async (_req, res) => {
   res.json(await fromCatcher<{ items: OutboxMessage[] }>("/messages"));
 });
-devRouter.get("/dev/outbox/:id", async (req, res) => {
+devRouter.get("/dev/outbox/:id", validate({ params: idParams("id"), query: noQuery }), async (req, res) => {
   res.json(await fromCatcher<OutboxMessage>(`/messages/${encodeURIComponent(String(req.params.id))}`));
 });

@@ -3,13 +3,14 @@ import { Router } from "express";
 import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { planExport, writeExport } from "./exports.service";
+import { idParams, validate } from "@/security/route-meta";
 
 export const exportsRouter = Router({ mergeParams: true });
 
 // Streamed: the headers go out first, then documents as the database cursor yields them. An
 // error after the first byte can only cut the download short, so the connection is destroyed
 // (the client sees a failed download rather than a truncated file that looks complete).
-exportsRouter.get("/corpora/:corpusId/exports", allow("manager", "data_lead"), async (req, res) => {
+exportsRouter.get("/corpora/:corpusId/exports", allow("manager", "data_lead"), validate({ params: idParams("corpusId"), query: exportQuerySchema }), async (req, res) => {
   const query = parseOrThrow(exportQuerySchema, req.query, "query");
   const { organizationId } = memberOf(req);
   const corpusId = String(req.params.corpusId);

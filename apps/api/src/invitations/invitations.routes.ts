@@ -5,15 +5,16 @@ import { isUuid } from "@/db/types";
 import { NotFoundError, parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { acceptInvitation, createInvitation, listInvitations, previewInvitation, resendInvitation, revokeInvitation } from "./invitations.service";
+import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
 
 /** Admin routes below /orgs/:orgId. */
 export const invitationsRouter = Router({ mergeParams: true });
 
-invitationsRouter.get("/invitations", allow(), async (req, res) => {
+invitationsRouter.get("/invitations", allow(), validate({ query: noQuery }), async (req, res) => {
   res.json({ items: await listInvitations(memberOf(req).organizationId), nextCursor: null });
 });
 
-invitationsRouter.post("/invitations", allow(), async (req, res) => {
+invitationsRouter.post("/invitations", allow(), validate({ query: noQuery, body: createInvitationInputSchema }), async (req, res) => {
   const input = parseOrThrow(createInvitationInputSchema, req.body);
   res.status(201).json(await createInvitation(memberOf(req).organizationId, input, actorOf(req)));
 });
@@ -23,11 +24,11 @@ function invitationId(raw: unknown): string {
   return raw;
 }
 
-invitationsRouter.post("/invitations/:invitationId/resend", allow(), async (req, res) => {
+invitationsRouter.post("/invitations/:invitationId/resend", allow(), validate({ params: idParams("invitationId"), query: noQuery, body: noBody }), async (req, res) => {
   res.json(await resendInvitation(memberOf(req).organizationId, invitationId(req.params.invitationId), actorOf(req)));
 });
 
-invitationsRouter.delete("/invitations/:invitationId", allow(), async (req, res) => {
+invitationsRouter.delete("/invitations/:invitationId", allow(), validate({ params: idParams("invitationId"), query: noQuery, body: noBody }), async (req, res) => {
   await revokeInvitation(memberOf(req).organizationId, invitationId(req.params.invitationId), actorOf(req));
   res.status(204).end();
 });
@@ -35,10 +36,10 @@ invitationsRouter.delete("/invitations/:invitationId", allow(), async (req, res)
 /** The invitee's routes: see an invitation by its link token, accept it when signed in. */
 export const invitationLinkRouter = Router();
 
-invitationLinkRouter.get("/invitations/:token", async (req, res) => {
+invitationLinkRouter.get("/invitations/:token", validate({ params: idParams("token"), query: noQuery }), async (req, res) => {
   res.json(await previewInvitation(String(req.params.token)));
 });
 
-invitationLinkRouter.post("/invitations/:token/accept", requireSession, async (req, res) => {
+invitationLinkRouter.post("/invitations/:token/accept", requireSession, validate({ params: idParams("token"), query: noQuery, body: noBody }), async (req, res) => {
   res.json(await acceptInvitation(String(req.params.token), actorOf(req)));
 });

@@ -4,10 +4,11 @@ import { requireSession } from "@/auth/session.middleware";
 import { parseOrThrow } from "@/errors";
 import { actorOf, allow, anyMember, memberOf } from "./org-access";
 import { createOrganization, deleteOrganizationForGood, getOrganization, renameOrganizationAs } from "./orgs.service";
+import { bodyOrEmpty, noQuery, validate } from "@/security/route-meta";
 
 /** POST /orgs (any signed-in user founds an organization). */
 export const orgsRouter = Router();
-orgsRouter.post("/orgs", requireSession, async (req, res) => {
+orgsRouter.post("/orgs", requireSession, validate({ query: noQuery, body: createOrganizationInputSchema }), async (req, res) => {
   const { name } = parseOrThrow(createOrganizationInputSchema, req.body);
   const org = await createOrganization(name, actorOf(req));
   res.status(201).json({ id: org.id, name: org.name, role: "admin" });
@@ -15,17 +16,17 @@ orgsRouter.post("/orgs", requireSession, async (req, res) => {
 
 /** Routes on the organization itself, mounted below /orgs/:orgId. */
 export const orgRouter = Router({ mergeParams: true });
-orgRouter.get("/", anyMember, async (req, res) => {
+orgRouter.get("/", anyMember, validate({ query: noQuery }), async (req, res) => {
   const m = memberOf(req);
   const org = await getOrganization(m.organizationId);
   res.json({ id: org.id, name: org.name, role: m.role });
 });
-orgRouter.patch("/", allow(), async (req, res) => {
+orgRouter.patch("/", allow(), validate({ query: noQuery, body: renameOrganizationInputSchema }), async (req, res) => {
   const { name } = parseOrThrow(renameOrganizationInputSchema, req.body);
   const org = await renameOrganizationAs(memberOf(req).organizationId, name, actorOf(req));
   res.json({ id: org.id, name: org.name, role: memberOf(req).role });
 });
-orgRouter.delete("/", allow(), async (req, res) => {
+orgRouter.delete("/", allow(), validate({ query: noQuery, body: bodyOrEmpty(deleteOrganizationInputSchema) }), async (req, res) => {
   const { confirmName } = parseOrThrow(deleteOrganizationInputSchema, req.body ?? {});
   await deleteOrganizationForGood(memberOf(req).organizationId, confirmName, actorOf(req));
   res.status(204).end();

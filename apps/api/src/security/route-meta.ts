@@ -44,6 +44,12 @@ export function idParams<K extends string>(...names: K[]): z.ZodObject<Record<K,
 export const noQuery = z.object({});
 /** A route whose body is ignored: absent, or any JSON object. */
 export const noBody = z.union([z.undefined(), z.object({}).loose()]);
+/** A body that may be left out: absent counts as `{}` (the schema's defaults apply). */
+export function bodyOrEmpty<T extends z.ZodType>(schema: T): z.ZodType<z.output<T>> {
+  return z.preprocess((v) => v ?? {}, schema);
+}
+/** A raw body read as bytes (the payments webhook): its signature, not a schema, checks it. */
+export const rawBody = z.union([z.undefined(), z.instanceof(Buffer)]);
 
 const WHAT = { params: "path", query: "query", body: "request" } as const;
 
@@ -57,7 +63,8 @@ export function validate(schemas: InputSchemas): RequestHandler {
     for (const part of ["params", "query", "body"] as const) {
       const schema = schemas[part];
       const value: unknown = req[part];
-      const problems = findUnstorableText(value, part === "body" ? "" : part);
+      // Raw bytes are not text: only a parsed body or query can hold a string the database refuses.
+      const problems = Buffer.isBuffer(value) ? [] : findUnstorableText(value, part === "body" ? "" : part);
       if (problems.length) throw unstorable(problems, WHAT[part]);
       if (!schema) continue;
       const result = schema.safeParse(value);

@@ -5,6 +5,7 @@ import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { compareTaggers, getComparisonDocument } from "./comparisons.service";
 import { downloadTaggerEvaluation, downloadTaggerModel, getTagger, listTaggers } from "./taggers.service";
 import { cancelRun, getRun, listRuns, repeatRun, startRun } from "./training-runs.service";
+import { bodyOrEmpty, idParams, noBody, noQuery, validate } from "@/security/route-meta";
 
 // Roles (abilities `train`, `viewTraining`, `downloadTaggers` in @tagloom/contracts): data leads
 // and admins start, cancel and repeat runs and download taggers; managers read runs, taggers and
@@ -23,50 +24,50 @@ function sendFile(res: Response, file: { filename: string; text: string }): void
   res.send(Buffer.from(file.text, "utf8"));
 }
 
-trainingRouter.post("/corpora/:corpusId/runs", trainers, async (req, res) => {
+trainingRouter.post("/corpora/:corpusId/runs", trainers, validate({ params: idParams("corpusId"), query: noQuery, body: bodyOrEmpty(startRunInputSchema) }), async (req, res) => {
   const input = parseOrThrow(startRunInputSchema, req.body ?? {});
   res.status(202).json(await startRun(memberOf(req).organizationId, ids(req).corpusId, input, actorOf(req)));
 });
 
-trainingRouter.get("/corpora/:corpusId/runs", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/runs", readers, validate({ params: idParams("corpusId"), query: runListQuerySchema }), async (req, res) => {
   const query = parseOrThrow(runListQuerySchema, req.query, "query");
   res.json(await listRuns(memberOf(req).organizationId, ids(req).corpusId, query));
 });
 
-trainingRouter.get("/corpora/:corpusId/runs/:runId", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/runs/:runId", readers, validate({ params: idParams("corpusId", "runId"), query: noQuery }), async (req, res) => {
   res.json(await getRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId));
 });
 
-trainingRouter.post("/corpora/:corpusId/runs/:runId/cancel", trainers, async (req, res) => {
+trainingRouter.post("/corpora/:corpusId/runs/:runId/cancel", trainers, validate({ params: idParams("corpusId", "runId"), query: noQuery, body: noBody }), async (req, res) => {
   res.json(await cancelRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId, actorOf(req)));
 });
 
-trainingRouter.post("/corpora/:corpusId/runs/:runId/repeat", trainers, async (req, res) => {
+trainingRouter.post("/corpora/:corpusId/runs/:runId/repeat", trainers, validate({ params: idParams("corpusId", "runId"), query: noQuery, body: noBody }), async (req, res) => {
   res.status(202).json(await repeatRun(memberOf(req).organizationId, ids(req).corpusId, ids(req).runId, actorOf(req)));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers", readers, validate({ params: idParams("corpusId"), query: taggerListQuerySchema }), async (req, res) => {
   const query = parseOrThrow(taggerListQuerySchema, req.query, "query");
   res.json(await listTaggers(memberOf(req).organizationId, ids(req).corpusId, query));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers/:taggerId", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId", readers, validate({ params: idParams("corpusId", "taggerId"), query: noQuery }), async (req, res) => {
   res.json(await getTagger(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId)));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/download", trainers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/download", trainers, validate({ params: idParams("corpusId", "taggerId"), query: noQuery }), async (req, res) => {
   sendFile(res, await downloadTaggerModel(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), actorOf(req)));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/evaluation", trainers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/evaluation", trainers, validate({ params: idParams("corpusId", "taggerId"), query: noQuery }), async (req, res) => {
   sendFile(res, await downloadTaggerEvaluation(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), actorOf(req)));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId", readers, validate({ params: idParams("corpusId", "taggerId", "otherId"), query: noQuery }), async (req, res) => {
   res.json(await compareTaggers(memberOf(req).organizationId, ids(req).corpusId, String(req.params.taggerId), String(req.params.otherId)));
 });
 
-trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId/documents/:documentId", readers, async (req, res) => {
+trainingRouter.get("/corpora/:corpusId/taggers/:taggerId/compare/:otherId/documents/:documentId", readers, validate({ params: idParams("corpusId", "taggerId", "otherId", "documentId"), query: noQuery }), async (req, res) => {
   res.json(
     await getComparisonDocument(
       memberOf(req).organizationId,

@@ -1,4 +1,4 @@
-import { fileListQuerySchema, pageQuerySchema } from "@tagloom/contracts";
+import { fileListQuerySchema, pageQuerySchema, uploadOptionsSchema } from "@tagloom/contracts";
 import { type RequestHandler, Router } from "express";
 import multer from "multer";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
@@ -7,6 +7,7 @@ import { actorOf, allow, anyMember, memberOf, viewCorpusData } from "@/orgs/org-
 import { getUploadLimits } from "./upload-limits";
 import { type ReceivedFile, boundedMemoryStorage, formatBytes } from "./upload-storage";
 import { getFilesPage, getUploadResult, getUploadsPage, receiveUpload } from "./uploads.service";
+import { bodyOrEmpty, idParams, noQuery, validate } from "@/security/route-meta";
 
 export const uploadsRouter = Router({ mergeParams: true });
 
@@ -50,7 +51,7 @@ const receiveFiles: RequestHandler = (req, res, next) => {
   });
 };
 
-uploadsRouter.get("/corpora/:corpusId/uploads/limits", anyMember, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads/limits", anyMember, validate({ params: idParams("corpusId"), query: noQuery }), async (req, res) => {
   await getCorpus(memberOf(req).organizationId, String(req.params.corpusId));
   res.json(getUploadLimits());
 });
@@ -61,22 +62,22 @@ const corpusIsWritable: RequestHandler = async (req, _res, next) => {
   next();
 };
 
-uploadsRouter.post("/corpora/:corpusId/uploads", allow("manager"), corpusIsWritable, receiveFiles, async (req, res) => {
+uploadsRouter.post("/corpora/:corpusId/uploads", allow("manager"), corpusIsWritable, receiveFiles, validate({ params: idParams("corpusId"), query: noQuery, body: bodyOrEmpty(uploadOptionsSchema) }), async (req, res) => {
   const files = ((req.files as unknown as ReceivedFile[] | undefined) ?? []).map((f) => ({ ...f }));
   const result = await receiveUpload(memberOf(req).organizationId, String(req.params.corpusId), req.body ?? {}, files, actorOf(req));
   res.status(202).json(result);
 });
 
-uploadsRouter.get("/corpora/:corpusId/uploads", viewCorpusData, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads", viewCorpusData, validate({ params: idParams("corpusId"), query: pageQuerySchema }), async (req, res) => {
   const page = parseOrThrow(pageQuerySchema, req.query, "query");
   res.json(await getUploadsPage(memberOf(req).organizationId, String(req.params.corpusId), page));
 });
 
-uploadsRouter.get("/corpora/:corpusId/uploads/:uploadId", viewCorpusData, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/uploads/:uploadId", viewCorpusData, validate({ params: idParams("corpusId", "uploadId"), query: noQuery }), async (req, res) => {
   res.json(await getUploadResult(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.uploadId)));
 });
 
-uploadsRouter.get("/corpora/:corpusId/files", viewCorpusData, async (req, res) => {
+uploadsRouter.get("/corpora/:corpusId/files", viewCorpusData, validate({ params: idParams("corpusId"), query: fileListQuerySchema }), async (req, res) => {
   const query = parseOrThrow(fileListQuerySchema, req.query, "query");
   res.json(await getFilesPage(memberOf(req).organizationId, String(req.params.corpusId), query));
 });
