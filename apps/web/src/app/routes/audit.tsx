@@ -9,6 +9,7 @@ import { type AuditFilters, useAudit } from "@/features/audit/api/get-audit";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { RequireAbility } from "@/components/layout/not-allowed";
 import { formatDateTime } from "@/lib/dates";
+import { AuditDetails } from "@/features/audit/components/audit-details";
 
 /** Turns a yyyy-mm-dd date input into the ISO instant of that local midnight. */
 function dayStart(value: string, addDays = 0): string | undefined {
@@ -85,43 +86,6 @@ const columns = [
     cell: (c) => <AuditDetails details={c.getValue()} ip={c.row.original.ip} />,
   }),
 ];
-
-/** A field name as words: "seatCount" → "seat count", "old_role" → "old role". */
-function fieldName(key: string): string {
-  return key.replace(/_/g, " ").replace(/([a-z])([A-Z])/g, "$1 $2").toLowerCase();
-}
-
-function fieldValue(value: unknown): string {
-  if (value === null || value === undefined) return "—";
-  if (typeof value === "string") return value;
-  if (typeof value === "number" || typeof value === "boolean") return String(value);
-  return JSON.stringify(value, null, 2);
-}
-
-/** An event's details folded away behind a summary, opened as a list of fields that wraps in the cell. */
-function AuditDetails({ details, ip }: { details: Record<string, unknown>; ip: string | null }) {
-  const entries = Object.entries(details);
-  if (entries.length === 0 && !ip) return null;
-  return (
-    <details className="max-w-xs text-xs text-ink-700">
-      <summary className="cursor-pointer text-ink-500 hover:text-ink-800">{entries.length === 1 ? "1 detail" : `${entries.length} details`}</summary>
-      <dl className="mt-1 space-y-1">
-        {entries.map(([k, v]) => (
-          <div key={k}>
-            <dt className="font-medium text-ink-800">{fieldName(k)}</dt>
-            <dd className="break-words whitespace-pre-wrap">{fieldValue(v)}</dd>
-          </div>
-        ))}
-        {ip ? (
-          <div>
-            <dt className="font-medium text-ink-800">from address</dt>
-            <dd>{ip}</dd>
-          </div>
-        ) : null}
-      </dl>
-    </details>
-  );
-}
 
 function AuditTable({ events }: { events: AuditEvent[] }) {
   const table = useReactTable({ data: events, columns, getCoreRowModel: getCoreRowModel(), getRowId: (e) => e.id });

@@ -1,11 +1,10 @@
-import { can } from "@tagloom/contracts";
+import { can, countOf } from "@tagloom/contracts";
 import { useParams } from "react-router";
 import { EmptyState, Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useUncertainDocuments } from "@/features/suggestions/api/get-uncertain-documents";
 import { UncertainTable } from "@/features/suggestions/components/uncertain-table";
-import { formatCount } from "@/lib/format";
 
 const LIMIT = 100;
 
@@ -26,7 +25,7 @@ export function CorpusUncertainRoute() {
       <p className="max-w-3xl text-sm text-ink-700">
         Ranked by the suggester (version {r.tagger.version})'s <strong>mean token entropy</strong>: for each word, how spread its posterior probability is over
         the tags, averaged over the document (in nats; 0 means sure of every word). Higher means the tagger is less sure, so labelling it teaches the tagger
-        more. Spans under {Math.round(r.threshold * 100)}% confidence count as low-confidence. {formatCount(r.considered)} documents without gold are scored.
+        more. Spans under {Math.round(r.threshold * 100)}% confidence count as low-confidence. {countOf(r.considered, "document")} without gold {r.considered === 1 ? "is" : "are"} scored.
       </p>
       {r.items.length === 0 ? (
         <EmptyState title="Nothing to rank yet">Documents appear here once the suggester has tagged them; documents with gold are left out.</EmptyState>

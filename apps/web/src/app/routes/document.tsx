@@ -1,5 +1,6 @@
-import { annotationStatusLabels, can, splitLabels } from "@tagloom/contracts";
+import { type EntityType, type SuggestedSpan, annotationStatusLabels, can, countOf, splitLabels } from "@tagloom/contracts";
 import { useState } from "react";
+import { SpanMark, UNKNOWN_TYPE_COLOR, useSpanStyles } from "@/components/spans";
 import { Link, useNavigate, useParams } from "react-router";
 import { Button } from "@/components/ui/button";
 import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
@@ -13,7 +14,6 @@ import { useDeleteDocument } from "@/features/documents/api/delete-document";
 import { useDocument } from "@/features/documents/api/get-document";
 import { DocumentText } from "@/features/documents/components/document-text";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
-import { formatCount } from "@/lib/format";
 import { NotFoundRoute } from "./not-found";
 import { RequireAbility } from "@/components/layout/not-allowed";
 
@@ -51,7 +51,7 @@ function DocumentScreen() {
       </p>
       <PageHeader
         title={d.title}
-        subtitle={`${d.filename ?? "no file"} · ${formatCount(d.tokenCount)} token${d.tokenCount === 1 ? "" : "s"} in ${formatCount(d.sentenceCount)} sentence${d.sentenceCount === 1 ? "" : "s"} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${annotationStatusLabels[d.annotationStatus]}`}
+        subtitle={`${d.filename ?? "no file"} · ${countOf(d.tokenCount, "token")} in ${countOf(d.sentenceCount, "sentence")} · ${d.split ? `${splitLabels[d.split]} split` : "no split"} · ${annotationStatusLabels[d.annotationStatus]}`}
         actions={
           can(org.role, "manageCorpora") ? (
             <Button variant="ghost" className="text-rust-500" onClick={() => setConfirming(true)}>
@@ -63,7 +63,7 @@ function DocumentScreen() {
       <div className="flex flex-wrap items-center gap-2 text-sm text-ink-500">
         {d.gold.length ? (
           <>
-            <span>{formatCount(d.gold.length)} gold spans:</span>
+            <span>{countOf(d.gold.length, "gold span")}:</span>
             {used.map((t) => (
               <TypeChip key={t.id} type={t} />
             ))}
@@ -77,15 +77,7 @@ function DocumentScreen() {
         <section className="space-y-2">
           <h2 className="font-semibold text-ink-900">Suggestions</h2>
           <p className="text-sm text-ink-500">Proposed by an import or a tagger; not authoritative until an annotator accepts them.</p>
-          <ul className="divide-y divide-ink-50 rounded-lg border border-ink-100 bg-white text-sm">
-            {d.suggestions.map((s, i) => (
-              <li key={i} className="flex items-center gap-3 px-4 py-2">
-                <span className="font-mono text-xs text-ink-500">{s.type}</span>
-                <span className="text-ink-900">{d.text.slice(s.start, s.end)}</span>
-                <span className="ml-auto text-xs text-ink-500">confidence {Math.round(s.confidence * 100)}%</span>
-              </li>
-            ))}
-          </ul>
+          <SuggestionList text={d.text} suggestions={d.suggestions} types={types.data} />
         </section>
       ) : null}
       <Dialog open={confirming} title="Delete this document?" onClose={() => setConfirming(false)}>
@@ -111,5 +103,29 @@ function DocumentScreen() {
         </div>
       </Dialog>
     </div>
+  );
+}
+
+/** The document's suggestions, each in the shared span look (dashed bracket, code and confidence) with a little text either side. */
+function SuggestionList({ text, suggestions, types }: { text: string; suggestions: readonly SuggestedSpan[]; types: readonly Pick<EntityType, "name" | "color">[] }) {
+  const { colors, codes } = useSpanStyles(types);
+  return (
+    <ul className="divide-y divide-ink-50 rounded-lg border border-ink-100 bg-white text-sm" data-testid="document-suggestions">
+      {suggestions.map((s, i) => {
+        const from = Math.max(0, s.start - 30);
+        const to = Math.min(text.length, s.end + 30);
+        return (
+          <li key={i} className="px-4 py-2 font-serif leading-[2.3] break-words text-ink-700">
+            {from > 0 ? "…" : null}
+            {text.slice(from, s.start)}
+            <SpanMark type={s.type} code={codes.get(s.type) ?? s.type.slice(0, 4).toUpperCase()} color={colors.get(s.type) ?? UNKNOWN_TYPE_COLOR} suggestion={{ confidence: s.confidence }}>
+              {text.slice(s.start, s.end)}
+            </SpanMark>
+            {text.slice(s.end, to)}
+            {to < text.length ? "…" : null}
+          </li>
+        );
+      })}
+    </ul>
   );
 }

@@ -1,3 +1,4 @@
+import { countOf } from "@tagloom/contracts";
 import { useMemo } from "react";
 import { Link } from "react-router";
 import { EmptyState, Notice, PageHeader, Skeleton } from "@/components/ui/card";
@@ -6,7 +7,6 @@ import { useCorpora } from "@/features/corpora/api/get-corpora";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useTaggers } from "@/features/training/api/get-taggers";
 import { score } from "@/features/training/components/run-status";
-import { formatCount } from "@/lib/format";
 
 function CorpusTaggers({ orgId, corpusId }: { orgId: string; corpusId: string }) {
   const taggers = useTaggers(orgId, corpusId);
@@ -49,7 +49,7 @@ export function TaggersRoute() {
                   {c.name}
                 </Link>
                 <div className="text-xs text-ink-500">
-                  {formatCount(c.documentCount)} documents · {formatCount(c.entityTypeCount)} entity types
+                  {countOf(c.documentCount, "document")} · {countOf(c.entityTypeCount, "entity type")}
                 </div>
               </div>
               <CorpusTaggers orgId={orgId} corpusId={c.id} />

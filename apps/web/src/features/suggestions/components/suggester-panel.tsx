@@ -1,4 +1,4 @@
-import type { SuggesterStatus } from "@tagloom/contracts";
+import { type SuggesterStatus, countOf } from "@tagloom/contracts";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Card, Notice } from "@/components/ui/card";
@@ -36,7 +36,7 @@ export function SuggesterPanel({ orgId, corpusId, status, canChoose }: { orgId: 
         <div className="space-y-1" data-testid="suggester-progress">
           <p className="text-sm text-ink-700">
             {latest.finishedAt ? "Tagged" : "Tagging"} {formatCount(latest.documentsDone)} of {formatCount(latest.documentsTotal)} documents
-            {latest.reason === "new_documents" ? " (newly uploaded)" : ""} · {formatCount(latest.spansSuggested)} spans suggested · shard {latest.shardsDone} of{" "}
+            {latest.reason === "new_documents" ? " (newly uploaded)" : ""} · {countOf(latest.spansSuggested, "span")} suggested · shard {latest.shardsDone} of{" "}
             {latest.shardsTotal}
           </p>
           <div className="h-2 overflow-hidden rounded-full bg-ink-50" role="progressbar" aria-valuemin={0} aria-valuemax={latest.documentsTotal || 1} aria-valuenow={latest.documentsDone} aria-label="Suggestion progress">

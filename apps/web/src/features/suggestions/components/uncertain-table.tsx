@@ -1,10 +1,9 @@
-import type { UncertainDocument, UncertainRanking } from "@tagloom/contracts";
+import { type UncertainDocument, type UncertainRanking, countOf } from "@tagloom/contracts";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { Field, Input } from "@/components/ui/field";
-import { formatCount } from "@/lib/format";
 
 const col = createColumnHelper<UncertainDocument>();
 
@@ -56,7 +55,7 @@ export function UncertainTable({
             <Link className="font-medium text-ink-900 hover:underline" to={linkTo(c.row.original.id)}>
               {c.getValue()}
             </Link>
-            <span className="ml-2 text-xs text-ink-500">{formatCount(c.row.original.tokenCount)} tokens</span>
+            <span className="ml-2 text-xs text-ink-500">{countOf(c.row.original.tokenCount, "token")}</span>
           </span>
         ),
       }),

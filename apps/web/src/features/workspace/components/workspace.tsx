@@ -1,4 +1,4 @@
-import { type AssignmentView, assignmentStateStates } from "@tagloom/contracts";
+import { type AssignmentView, assignmentStateStates, countOf } from "@tagloom/contracts";
 import { type ReactNode, useCallback, useEffect, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
@@ -207,7 +207,7 @@ function SaveLegend({ store }: { store: AnnotationStore }) {
   useSpansVersion(store);
   return (
     <p className="px-1 text-xs text-ink-500">
-      {store.spans.length} span{store.spans.length === 1 ? "" : "s"} · {store.doc.tokenCount.toLocaleString("en")} words · saved automatically a moment after each change.
+      {countOf(store.spans.length, "span")} · {countOf(store.doc.tokenCount, "word")} · saved automatically a moment after each change.
     </p>
   );
 }
