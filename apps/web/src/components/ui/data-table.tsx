@@ -18,7 +18,8 @@ export function DataTable<T>({
   return (
     // relative: screen-reader-only text in far cells is positioned absolutely; without a positioned
     // scroll box it would escape the box and widen the whole page on a phone.
-    <div className={cn("relative overflow-x-auto rounded-lg border border-ink-100 bg-white", className)}>
+    // tabIndex and a name: a box that scrolls sideways on a phone must be reachable from the keyboard.
+    <div role="region" aria-label={caption} tabIndex={0} className={cn("relative overflow-x-auto rounded-lg border border-ink-100 bg-white focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-ink-500", className)}>
       <table className="w-full text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">

@@ -13,7 +13,7 @@ export function AgreementView({ agreement }: { agreement: BatchAgreement }) {
   const pairName = (p: PairAgreement) => `${p.annotatorA.name} & ${p.annotatorB.name}`;
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_auto]">
-      <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
+      <div role="region" aria-label="Agreement per pair of annotators" tabIndex={0} className="overflow-x-auto rounded-lg border border-ink-100 bg-white focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-ink-500">
         <table className="w-full text-sm">
           <caption className="sr-only">Agreement per pair of annotators</caption>
           <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">

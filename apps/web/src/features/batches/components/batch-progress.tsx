@@ -6,7 +6,7 @@ import { ProgressBar } from "./progress-bar";
 /** Progress per annotator: assignments by state. */
 export function AnnotatorProgress({ batch }: { batch: BatchDetail }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
+    <div role="region" aria-label="Progress per annotator" tabIndex={0} className="overflow-x-auto rounded-lg border border-ink-100 bg-white focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-ink-500">
       <table className="w-full text-sm">
         <caption className="sr-only">Progress per annotator</caption>
         <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">
@@ -46,7 +46,7 @@ export function AnnotatorProgress({ batch }: { batch: BatchDetail }) {
 /** Every document of the batch with each annotator's state, and a link to review it once work is in. */
 export function BatchDocuments({ batch, reviewLink }: { batch: BatchDetail; reviewLink: (documentId: string) => string }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
+    <div role="region" aria-label="Documents of the batch" tabIndex={0} className="overflow-x-auto rounded-lg border border-ink-100 bg-white focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-ink-500">
       <table className="w-full text-sm">
         <caption className="sr-only">Documents of the batch</caption>
         <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">

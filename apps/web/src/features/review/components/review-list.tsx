@@ -4,7 +4,7 @@ import { Link } from "react-router";
 /** Documents with submitted work, grouped by batch; each links to its review. */
 export function ReviewList({ items, linkTo }: { items: ReviewListItem[]; linkTo: (item: ReviewListItem) => string }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-100 bg-white">
+    <div role="region" aria-label="Work to review" tabIndex={0} className="overflow-x-auto rounded-lg border border-ink-100 bg-white focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-ink-500">
       <table className="w-full text-sm">
         <caption className="sr-only">Work to review</caption>
         <thead className="border-b border-ink-100 bg-ink-50/60 text-xs tracking-wide text-ink-500 uppercase">
