@@ -7,6 +7,7 @@ import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
 import { useReviewDocument } from "@/features/review/api/get-review-document";
 import { ReviewPanel } from "@/features/review/components/review-panel";
 import { RequireAbility } from "@/components/layout/not-allowed";
+import { UserText } from "@/components/ui/user-text";
 
 /** Review of one document of a batch. */
 export function ReviewDocumentRoute() {
@@ -30,7 +31,7 @@ function ReviewDocumentScreen() {
   return (
     <div className="max-w-5xl space-y-4">
       <Link to={paths.org.batch.build(id, corpusId, batchId)} className="text-xs text-ink-500 hover:underline">
-        ← Batch {v.batch.name}
+        ← Batch <UserText>{v.batch.name}</UserText>
       </Link>
       <PageHeader title={`Review: ${v.document.title}`} subtitle={v.gold ? `This document already has gold (${countOf(v.gold.length, "span")}); accepting replaces it.` : undefined} />
       <ReviewPanel

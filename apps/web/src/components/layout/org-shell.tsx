@@ -10,6 +10,7 @@ import { HealthStatus } from "@/features/health/components/health-status";
 import { Brand } from "./brand";
 import { SideNav } from "./side-nav";
 import { OrgSwitcher } from "./org-switcher";
+import { UserText } from "@/components/ui/user-text";
 
 /** The frame of every organization screen: top bar, the areas on the left, the screen, a footer. */
 export function OrgShell({ me, orgId }: { me: Me; orgId: string }) {
@@ -37,7 +38,7 @@ export function OrgShell({ me, orgId }: { me: Me; orgId: string }) {
         <OrgSwitcher memberships={me.memberships} current={orgId} />
         <div className="ml-auto flex items-center gap-3 text-sm">
           <span className="hidden text-ink-500 lg:inline" title={me.user.email}>
-            {me.user.name} · {roleLabels[membership.role]}
+            <UserText>{me.user.name}</UserText> · {roleLabels[membership.role]}
           </span>
           <Button
             variant="ghost"
@@ -60,7 +61,7 @@ export function OrgShell({ me, orgId }: { me: Me; orgId: string }) {
       {menuOpen ? (
         <div id="mobile-nav" className="border-b border-ink-100 bg-white px-3 pt-4 md:hidden">
           <p className="mb-3 px-3 text-sm text-ink-500">
-            {me.user.name} · {roleLabels[membership.role]}
+            <UserText>{me.user.name}</UserText> · {roleLabels[membership.role]}
           </p>
           <SideNav orgId={orgId} role={membership.role} onNavigate={() => setMenuOpen(false)} className="grid grid-cols-2 gap-x-2" />
         </div>

@@ -2,6 +2,7 @@ import { type BatchDetail, annotationStatusStates, assignmentStateLabels, assign
 import { Link } from "react-router";
 import { StateBadge } from "@/components/ui/state-badge";
 import { ProgressBar } from "./progress-bar";
+import { UserText } from "@/components/ui/user-text";
 
 /** Progress per annotator: assignments by state. */
 export function AnnotatorProgress({ batch }: { batch: BatchDetail }) {
@@ -63,7 +64,7 @@ export function BatchDocuments({ batch, reviewLink }: { batch: BatchDetail; revi
             return (
               <tr key={d.documentId}>
                 <th scope="row" className="px-4 py-2 text-left font-medium text-ink-800">
-                  {d.title} <span className="block text-xs font-normal text-ink-500">{countOf(d.tokenCount, "word")}</span>
+                  <UserText>{d.title}</UserText> <span className="block text-xs font-normal text-ink-500">{countOf(d.tokenCount, "word")}</span>
                 </th>
                 <td className="px-4 py-2">
                   <ul className="flex flex-wrap gap-1.5">

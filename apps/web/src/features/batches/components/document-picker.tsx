@@ -5,6 +5,7 @@ import { Notice, Skeleton } from "@/components/ui/card";
 import { Input, Select } from "@/components/ui/field";
 import { StateBadge } from "@/components/ui/state-badge";
 import { type CandidateFilter, useBatchCandidates } from "../api/get-batch-candidates";
+import { UserText } from "@/components/ui/user-text";
 
 /** Picks documents of a corpus for a batch: search, filter by status, tick rows or all shown. */
 export function DocumentPicker({
@@ -109,7 +110,7 @@ export function DocumentPicker({
                   <td className="px-3 py-1.5">
                     <input type="checkbox" aria-label={`Pick ${r.title}`} checked={chosen.has(r.id)} onChange={() => toggle(r.id)} />
                   </td>
-                  <td className="px-3 py-1.5 text-ink-800">{r.title}</td>
+                  <td className="px-3 py-1.5 text-ink-800"><UserText>{r.title}</UserText></td>
                   <td className="px-3 py-1.5 text-right tabular-nums">{r.tokenCount.toLocaleString("en")}</td>
                   <td className="px-3 py-1.5">
                     <StateBadge state={annotationStatusStates[r.annotationStatus]} />

@@ -12,6 +12,7 @@ import { formatDateTime } from "@/lib/dates";
 import { formatCount } from "@/lib/format";
 import { type DocumentsParams, useDocuments } from "../api/get-documents";
 import { useSetSplit } from "../api/set-split";
+import { UserText } from "@/components/ui/user-text";
 
 const col = createColumnHelper<DocumentListItem>();
 type SplitFilter = "" | "train" | "test" | "none";
@@ -47,11 +48,11 @@ const dataColumns = [
     header: sortHeader("Title", "title"),
     cell: (c) => (
       <Link to={metaOf(c.table).linkTo(c.row.original.id)} className="font-medium text-ink-800 underline-offset-2 hover:underline">
-        {c.getValue()}
+        <UserText>{c.getValue()}</UserText>
       </Link>
     ),
   }),
-  col.accessor("filename", { header: "File", cell: (c) => <span className="text-ink-500">{c.getValue() ?? "—"}</span> }),
+  col.accessor("filename", { header: "File", cell: (c) => <UserText className="text-ink-500">{c.getValue() ?? "—"}</UserText> }),
   col.accessor("tokenCount", { header: sortHeader("Tokens", "tokens"), cell: (c) => <span className="tabular-nums">{formatCount(c.getValue())}</span> }),
   col.accessor("split", { header: "Split", cell: (c) => splitLabels[c.getValue() ?? "none"] }),
   col.accessor("annotationStatus", { header: "Status", cell: (c) => <StateBadge state={annotationStatusStates[c.getValue()]} /> }),

@@ -6,6 +6,7 @@ import { DueDate } from "@/components/ui/due-date";
 import { StateBadge } from "@/components/ui/state-badge";
 import { formatAgo } from "@/lib/dates";
 import { formatCount } from "@/lib/format";
+import { UserText } from "@/components/ui/user-text";
 
 const col = createColumnHelper<QueueItem>();
 
@@ -24,7 +25,7 @@ export function QueueTable({ items, linkTo, finished = false, caption = "My queu
       header: "Document",
       cell: (c) => (
         <Link to={linkTo(c.row.original)} className="font-medium text-ink-800 hover:underline">
-          {c.getValue() || "Untitled"}
+          <UserText>{c.getValue() || "Untitled"}</UserText>
         </Link>
       ),
     }),

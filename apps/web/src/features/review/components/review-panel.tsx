@@ -10,6 +10,7 @@ import { ReturnForm } from "./return-form";
 import { type Choice, DisagreementItem } from "./disagreement-item";
 import { SpanContext } from "./span-context";
 import { wordEdges } from "./word-edges";
+import { UserText } from "@/components/ui/user-text";
 
 type Props = { orgId: string; view: ReviewDocumentView; openLink: (assignmentId: string) => string; onDone: (what: string) => void };
 
@@ -60,7 +61,7 @@ export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
         <ul className="mt-3 divide-y divide-ink-50">
           {view.assignments.map((a) => (
             <li key={a.id} className="flex flex-wrap items-center gap-3 py-2 text-sm">
-              <span className="font-medium text-ink-800">{a.annotator.name}</span>
+              <UserText className="font-medium text-ink-800">{a.annotator.name}</UserText>
               <StateBadge state={assignmentStateStates[a.state]} />
               {a.state === "submitted" ? <span className="text-ink-500">{countOf(a.spans.length, "span")}</span> : null}
               <Link to={openLink(a.id)} className="text-ink-700 underline">
@@ -99,7 +100,7 @@ export function ReviewPanel({ orgId, view, openLink, onDone }: Props) {
 
       {view.ready && single ? (
         <Card className="space-y-3">
-          <h2 className="font-semibold text-ink-900">Spans of {finished[0]!.annotator.name}</h2>
+          <h2 className="font-semibold text-ink-900">Spans of <UserText>{finished[0]!.annotator.name}</UserText></h2>
           {finished[0]!.spans.length ? (
             <ul className="space-y-2 text-sm">
               {finished[0]!.spans.map((s) => (

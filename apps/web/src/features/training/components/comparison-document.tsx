@@ -1,6 +1,7 @@
 import { type ComparisonDocument, countOf } from "@tagloom/contracts";
 import { SpanText, TypeKey } from "@/components/spans";
 import { Card } from "@/components/ui/card";
+import { UserText } from "@/components/ui/user-text";
 
 /**
  * One test document read three times: gold, then tagger A, then tagger B, each drawn with the
@@ -14,7 +15,7 @@ export function ComparisonDocumentView({ doc, labelA, labelB }: { doc: Compariso
   ];
   return (
     <div className="space-y-4">
-      <h2 className="text-lg font-semibold text-ink-900">{doc.document.title}</h2>
+      <h2 className="text-lg font-semibold text-ink-900"><UserText>{doc.document.title}</UserText></h2>
       <div aria-label="Key" role="group" className="flex flex-wrap items-center gap-3">
         <span className="text-sm text-ink-500">Key:</span>
         {doc.entityTypes.map((t) => (

@@ -5,6 +5,7 @@ import { Card, Notice } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/data-table";
 import { paths } from "@/config/paths";
 import { score } from "./run-status";
+import { UserText } from "@/components/ui/user-text";
 
 type Row = { type: string; a: { precision: number; recall: number; f1: number; support: number }; b: { precision: number; recall: number; f1: number; support: number }; f1Difference: number };
 const col = createColumnHelper<Row>();
@@ -76,7 +77,7 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
               <li key={d.documentId} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
                 {/* A full page load: an in-app navigation to this view left the previous screen up in Chromium (cause not found yet). */}
                 <Link reloadDocument className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
-                  {d.title}
+                  <UserText>{d.title}</UserText>
                 </Link>
                 <span className="text-xs text-ink-500 tabular-nums">
                   {d.tokensDiffering} of {d.tokens} tokens tagged differently · F1 A {score(d.f1A)} · B {score(d.f1B)}

@@ -9,6 +9,7 @@ import { useUploadLimits } from "../api/get-upload-limits";
 import { useUploadFiles } from "../api/upload-files";
 import { planUploads } from "./plan-uploads";
 import { FileResultList, type LocalRefusal, UploadResults } from "./upload-results";
+import { UserText } from "@/components/ui/user-text";
 
 /**
  * Drop files here or pick them: text, PDF, DOCX, JSONL and column files, many at once. Shows
@@ -129,7 +130,7 @@ export function UploadPanel({ orgId, corpusId, disabledReason }: { orgId: string
             <ul className="max-h-40 overflow-y-auto rounded border border-ink-100 bg-white px-3 py-2 text-xs text-ink-700" aria-label="Chosen files">
               {chosen.slice(0, 200).map((f, i) => (
                 <li key={`${f.name}-${i}`}>
-                  {f.name} <span className="text-ink-500">{formatBytes(f.size)}</span>
+                  <UserText>{f.name}</UserText> <span className="text-ink-500">{formatBytes(f.size)}</span>
                 </li>
               ))}
               {chosen.length > 200 ? <li className="text-ink-500">…and {formatCount(chosen.length - 200)} more</li> : null}

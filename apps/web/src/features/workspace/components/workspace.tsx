@@ -20,6 +20,7 @@ import { SaveStatusBadge } from "./save-status";
 import { SchemaPanel } from "./schema-panel";
 import { SpanMenu } from "./span-menu";
 import { SuggestionsPanel } from "./suggestions-panel";
+import { UserText } from "@/components/ui/user-text";
 
 type Props = {
   orgId: string;
@@ -110,9 +111,9 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
       <header className="flex flex-wrap items-center gap-x-6 gap-y-2">
         <div className="min-w-0">
           <div className="text-xs text-ink-500">{backLink}</div>
-          <h1 className="truncate text-xl font-semibold text-ink-900">{view.document.title}</h1>
+          <h1 className="truncate text-xl font-semibold text-ink-900"><UserText>{view.document.title}</UserText></h1>
           <p className="text-xs text-ink-500">
-            Batch {view.batch.name} · {view.batch.dueDate ? <DueDate day={view.batch.dueDate} /> : "no due date"} · {view.annotator.name}{" "}
+            Batch <UserText>{view.batch.name}</UserText> · {view.batch.dueDate ? <DueDate day={view.batch.dueDate} /> : "no due date"} · <UserText>{view.annotator.name}</UserText>{" "}
             <StateBadge state={assignmentStateStates[state]} className="ml-1" />
           </p>
         </div>
