@@ -89,8 +89,12 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   const code = typeof e.code === "string" ? e.code : "";
   if (CONNECTION_CODES.has(code) || code.startsWith("08") || /^57P0[1-3]$/.test(code)) return true;
   if (e.name === "KnexTimeoutError") return true;
-  return typeof e.message === "string" && /^Connection terminated/.test(e.message);
+  // node-postgres reports a cut connection without a code, and Knex prefixes the message with
+  // the SQL ("select … - Connection terminated unexpectedly"), so match after that prefix too.
+  return typeof e.message === "string" && CONNECTION_LOST.test(e.message);
 }
+
+const CONNECTION_LOST = /(?:^| - )(?:Connection terminated|Client has encountered a connection error and is not queryable|Client was closed and is not queryable)/;
 
 /** The one place errors become responses: `{ error: { code, message, details } }`. */
 export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
