@@ -65,6 +65,11 @@ const envSchema = z.object({
   TAGGING_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).default(60),
   /** Seconds after which a training job whose worker died (or hung) is retried by another worker. */
   TRAINING_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
+  /**
+   * Seconds after which an extraction job whose worker died (or hung) is retried by another
+   * worker: longer than a group of files takes to read (each file stops after UPLOAD_EXTRACT_SECONDS).
+   */
+  EXTRACT_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
   /** Training tokens per shard: a run's documents are counted in slices of about this size. */
   TRAINING_SHARD_TOKENS: z.coerce.number().int().min(1).default(50_000),
   /** How often a worker's pg-boss looks for expired jobs and does its housekeeping (seconds). */

@@ -3,6 +3,7 @@ import { isUtf8 } from "node:buffer";
 import type { FilePage, FileListQuery, Page, Upload, UploadFile, UploadFormat, UploadOptions, UploadResult } from "@tagloom/contracts";
 import { unstorableTextReason, uploadExtensions, uploadOptionsSchema } from "@tagloom/contracts";
 import { type Actor, recordAudit } from "@/audit/audit.service";
+import { env } from "@/config/env";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
 import { decodePageCursor, encodePageCursor } from "@/corpora/page-cursor";
 import { db as defaultDb } from "@/db/knex";
@@ -140,7 +141,7 @@ export async function receiveUpload(
   for (const fileIds of groups) {
     const data: ExtractJobData = { organizationId, corpusId, uploadId: upload.id, fileIds };
     try {
-      const jobId = await enqueueJob(EXTRACT_QUEUE, data);
+      const jobId = await enqueueJob(EXTRACT_QUEUE, data, { expireInSeconds: env.EXTRACT_JOB_EXPIRE_SECONDS });
       if (!jobId) throw new Error("the job queue refused the job");
     } catch (err) {
       logger.error({ err, uploadId: upload.id }, "could not queue extraction");
