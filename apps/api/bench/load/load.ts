@@ -69,7 +69,8 @@ try {
 
   const api = product.api.pid!;
   const worker = product.worker.pid!;
-  const cpuBefore = { api: cpuSeconds(api), worker: cpuSeconds(worker), self: process.cpuUsage() };
+  const pgCpu = () => product!.postgresPids().reduce((sum, pid) => sum + (cpuSeconds(pid) || 0), 0);
+  const cpuBefore = { api: cpuSeconds(api), worker: cpuSeconds(worker), pg: pgCpu(), self: process.cpuUsage() };
   // The load generator shares the machine: its own event-loop lag adds to every latency it measures.
   const lag = monitorEventLoopDelay({ resolution: 10 });
   lag.enable();
@@ -85,6 +86,7 @@ try {
   const share = (s: number) => `${s.toFixed(1)} s (${((100 * s) / SECONDS).toFixed(0)}% of one core)`;
   const cpuLine =
     `CPU used during the run: API ${share(cpuSeconds(api) - cpuBefore.api)}, worker ${share(cpuSeconds(worker) - cpuBefore.worker)}, ` +
+    `PostgreSQL ${share(pgCpu() - cpuBefore.pg)}, ` +
     `load generator ${share((self.user + self.system) / 1e6)}; load generator event-loop delay p99 ${(lag.percentile(99) / 1e6).toFixed(0)} ms`;
   // A save sent just before the end may still be running in the API: let it finish before reading.
   await new Promise((r) => setTimeout(r, 2000));
@@ -92,6 +94,17 @@ try {
   const { db } = await import("../../src/db/knex");
   const check = await checkAcknowledgedSaves(db, logs, org.typeIds);
   const { pgPool } = await import("../../src/db/pg-pool");
+  // The check must be able to fail: set one assignment back by a version on purpose, check it
+  // again (one lost save expected), and put the row back.
+  const probe = logs.find((l) => l.acks.length >= 2);
+  let probeLost = 0;
+  if (probe) {
+    const id = probe.annotator.assignmentId;
+    const { version } = (await db("assignments").where({ id }).first("version")) as { version: number };
+    await db("assignments").where({ id }).update({ version: version - 1 });
+    probeLost = (await checkAcknowledgedSaves(db, [probe], org.typeIds)).lost;
+    await db("assignments").where({ id }).update({ version });
+  }
 
   console.log(`\n[${elapsed()}] results (${SECONDS} s; load average at the end: ${loadAfter})`);
   console.log(saves.summary(SECONDS));
@@ -107,10 +120,11 @@ try {
   console.log(`API and worker: RSS ${rssMb(api).toFixed(0)} MB and ${rssMb(worker).toFixed(0)} MB; error lines logged: ${errorLines.length}${errorLines[0] ? ` (first: ${errorLines[0].slice(0, 300)})` : ""}`);
   if (check.unexplainedVersions) console.log(`versions in the database no save explains: ${check.unexplainedVersions}`);
   if (check.firstProblem) console.log(`first lost save: ${check.firstProblem}`);
+  console.log(`the check itself: an assignment set back by one version on purpose shows ${probeLost} lost save${probeLost === 1 ? "" : "s"} (expected 1)`);
   console.log(`acknowledged saves lost: ${check.lost}`);
 
   const serverErrors = saves.count((s) => s >= 500) + pages.count((s) => s >= 500);
-  const clean = check.lost === 0 && check.unexplainedVersions === 0 && serverErrors === 0 && paging.rowsSeenTwice === 0 && saves.errors + pages.errors === 0;
+  const clean = check.lost === 0 && check.unexplainedVersions === 0 && serverErrors === 0 && paging.rowsSeenTwice === 0 && saves.errors + pages.errors === 0 && probeLost === 1;
   console.log(clean ? "PASS: no 5xx, no connection error or timeout, no lost save, no repeated row" : "FAIL: see the figures above");
   await db.destroy();
   await pgPool.end();

@@ -15,8 +15,23 @@ export type LoadProduct = {
   api: ChildProcess;
   worker: ChildProcess;
   logFile: string;
+  /** The PostgreSQL server's processes: the postmaster and its children (the backends and helpers). */
+  postgresPids: () => number[];
   stop: () => Promise<void>;
 };
+
+function childPids(parent: number): number[] {
+  const out: number[] = [];
+  for (const entry of fs.readdirSync("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = fs.readFileSync(`/proc/${entry}/stat`, "utf8");
+      // Field 4 (after the command name in parentheses and the state) is the parent's pid.
+      if (Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]) === parent) out.push(Number(entry));
+    } catch {}
+  }
+  return out;
+}
 
 /** Builds the web app the way `npm start` does (fonts copied, then vite build into apps/web/dist). */
 function buildWebApp(): string {
@@ -99,7 +114,9 @@ export async function startLoadProduct(): Promise<LoadProduct> {
     const page = await fetch(`${base}/`);
     const html = await page.text();
     if (page.status !== 200 || !html.includes("<script")) throw new Error(`the API does not serve the built web app (GET / answered ${page.status})`);
-    return { base, api, worker, logFile, stop };
+    const postmaster = Number(fs.readFileSync(path.join(pg.dir, "data", "postmaster.pid"), "utf8").split("\n")[0]);
+    const postgresPids = () => [postmaster, ...childPids(postmaster)];
+    return { base, api, worker, logFile, postgresPids, stop };
   } catch (err) {
     await stop();
     throw err;
