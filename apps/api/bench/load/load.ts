@@ -18,10 +18,12 @@
 // Other settings: LOAD_ANNOTATORS=100 LOAD_MANAGERS=10 LOAD_DOCUMENTS=5000 (extra documents in the
 // corpus, so the table has many pages) LOAD_REUSE_WEB_BUILD=1 (skip the web build when dist exists).
 import fs from "node:fs";
+import path from "node:path";
 import os from "node:os";
 import { monitorEventLoopDelay } from "node:perf_hooks";
 import { rssMb } from "../support/bench-product";
 import { runAnnotators } from "./annotators";
+import { apiResponseTimes } from "./api-log";
 import { checkAcknowledgedSaves } from "./check-saves";
 import { runManagers } from "./managers";
 import { createLoadOrg } from "./people";
@@ -69,17 +71,20 @@ try {
 
   const api = product.api.pid!;
   const worker = product.worker.pid!;
-  const pgCpu = () => product!.postgresPids().reduce((sum, pid) => sum + (cpuSeconds(pid) || 0), 0);
+  // Backends that end during the run leave their time in the postmaster's count of its reaped children.
+  const pgCpu = () => product!.postgresPids().reduce((sum, pid, i) => sum + (cpuSeconds(pid, i === 0) || 0), 0);
   const cpuBefore = { api: cpuSeconds(api), worker: cpuSeconds(worker), pg: pgCpu(), self: process.cpuUsage() };
   // The load generator shares the machine: its own event-loop lag adds to every latency it measures.
   const lag = monitorEventLoopDelay({ resolution: 10 });
   lag.enable();
+  const runFrom = Date.now();
   const saves = new Recorder("annotators autosaving (PUT assignment)");
   const pages = new Recorder("managers paging (GET documents)");
   const [logs, paging] = await Promise.all([
     runAnnotators(product.base, org.annotators, { seconds: SECONDS, rate: SAVE_RATE, recorder: saves }),
     runManagers(product.base, org, org.managers, { seconds: SECONDS, rate: PAGE_RATE, recorder: pages }),
   ]);
+  const runTo = Date.now() + 2000;
   const loadAfter = loadAverage();
   lag.disable();
   const self = process.cpuUsage(cpuBefore.self);
@@ -106,12 +111,20 @@ try {
     await db("assignments").where({ id }).update({ version });
   }
 
+  const inside = apiResponseTimes(product.logFile, runFrom, runTo);
+  const insideLine = (ms: number[]) => {
+    const r = new Recorder("");
+    r.latencies.push(...ms);
+    return `  as the API timed them (pino-http responseTime, ${ms.length} answers): p50 ${r.percentile(50).toFixed(0)}, p95 ${r.percentile(95).toFixed(0)}, p99 ${r.percentile(99).toFixed(0)} ms`;
+  };
   console.log(`\n[${elapsed()}] results (${SECONDS} s; load average at the end: ${loadAfter})`);
   console.log(saves.summary(SECONDS));
   const conflicts = logs.reduce((n, l) => n + l.conflicts, 0);
   const unanswered = logs.reduce((n, l) => n + l.unanswered.length, 0);
+  console.log(insideLine(inside.saves));
   console.log(`  saves acknowledged: ${check.acknowledged}; unanswered (timed out or in flight at the end): ${unanswered}; 409 stale_version after one: ${conflicts}`);
   console.log(pages.summary(SECONDS));
+  console.log(insideLine(inside.pages));
   console.log(`  pages read: ${paging.pages} (${paging.rows} rows) over ${paging.walks} finished walks; rows met twice within a walk: ${paging.rowsSeenTwice}`);
   const refusals = [...logs.flatMap((l) => l.refusals), ...paging.refusals];
   if (refusals.length) console.log(`first refusals: ${refusals.slice(0, 3).map((r) => `${r.status} ${r.body}`).join(" | ")}`);
@@ -132,4 +145,6 @@ try {
 } finally {
   await product?.stop();
   clearTimeout(watchdog);
+  // The product's log is kept when something failed (its path is printed above).
+  if (product && process.exitCode === 0) fs.rmSync(path.dirname(product.logFile), { recursive: true, force: true });
 }

@@ -15,7 +15,7 @@ export type LoadProduct = {
   api: ChildProcess;
   worker: ChildProcess;
   logFile: string;
-  /** The PostgreSQL server's processes: the postmaster and its children (the backends and helpers). */
+  /** The PostgreSQL server's processes: the postmaster first, then its children (the backends and helpers). */
   postgresPids: () => number[];
   stop: () => Promise<void>;
 };
@@ -104,7 +104,9 @@ export async function startLoadProduct(): Promise<LoadProduct> {
     await migrateLatest(db);
 
     const start = (entry: string) => {
-      const child = spawn(process.execPath, ["--import", "tsx", entry], { cwd: apiDir, env: productEnv, stdio: ["ignore", log, log] });
+      // LOAD_PROFILE_DIR=<dir> writes a CPU profile of each product process there.
+      const profile = process.env.LOAD_PROFILE_DIR ? ["--cpu-prof", "--cpu-prof-dir", process.env.LOAD_PROFILE_DIR] : [];
+      const child = spawn(process.execPath, [...profile, "--import", "tsx", entry], { cwd: apiDir, env: productEnv, stdio: ["ignore", log, log] });
       children.push(child);
       return child;
     };

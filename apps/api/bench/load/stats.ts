@@ -65,13 +65,18 @@ export class Recorder {
   }
 }
 
-/** CPU time (user + system, seconds) a process has used, from /proc/<pid>/stat (Linux; 100 clock ticks a second, the kernel's USER_HZ). */
-export function cpuSeconds(pid: number): number {
+/**
+ * CPU time (user + system, seconds) a process has used, from /proc/<pid>/stat (Linux; 100 clock
+ * ticks a second, the kernel's USER_HZ). With `reapedChildren`, the time of its children that
+ * have exited and been waited for is added (fields 16 and 17: how a server's ended backends count).
+ */
+export function cpuSeconds(pid: number, reapedChildren = false): number {
   try {
     const stat = fs.readFileSync(`/proc/${pid}/stat`, "utf8");
     // The fields after the command name (which may hold spaces) start at state, field 3; utime and stime are fields 14 and 15.
     const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
-    return (Number(fields[11]) + Number(fields[12])) / 100;
+    const own = Number(fields[11]) + Number(fields[12]);
+    return (reapedChildren ? own + Number(fields[13]) + Number(fields[14]) : own) / 100;
   } catch {
     return NaN;
   }
