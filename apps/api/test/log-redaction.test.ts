@@ -1,0 +1,79 @@
+import { type ChildProcess, spawn } from "node:child_process";
+import net from "node:net";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { repoRoot } from "@/config/env";
+import { uniqueEmail } from "./support/http";
+
+// The API logs every request (pino-http, level info, as `npm start` runs it). Session cookies and
+// API tokens are credentials: whoever reads the log must not be able to sign in with them.
+const children: ChildProcess[] = [];
+afterAll(() => {
+  for (const c of children) if (c.exitCode === null && c.signalCode === null) c.kill("SIGKILL");
+});
+
+const freePort = () =>
+  new Promise<number>((resolve) => {
+    const srv = net.createServer().listen(0, "127.0.0.1", () => {
+      const p = (srv.address() as net.AddressInfo).port;
+      srv.close(() => resolve(p));
+    });
+  });
+
+describe("request log", () => {
+  it("keeps session cookies, Set-Cookie answers and bearer tokens out of the log lines", async () => {
+    const port = await freePort();
+    const child = spawn(process.execPath, ["--import", "tsx", "src/server.ts"], {
+      cwd: join(repoRoot, "apps/api"),
+      env: { ...process.env, NODE_ENV: "development", PORT: String(port), HOST: "127.0.0.1", LOG_LEVEL: "info", AUTH_RATE_LIMIT: "1000" },
+      stdio: ["ignore", "pipe", "inherit"],
+    });
+    children.push(child);
+    let log = "";
+    child.stdout!.on("data", (d: Buffer) => (log += d.toString()));
+    const url = `http://127.0.0.1:${port}`;
+    const deadline = Date.now() + 45_000;
+    while (!(await fetch(`${url}/api/health`).then((r) => r.ok, () => false))) {
+      if (child.exitCode !== null) throw new Error(`API exited with ${child.exitCode}`);
+      if (Date.now() > deadline) throw new Error("API did not start within 45 s");
+      await new Promise((r) => setTimeout(r, 100));
+    }
+
+    const signUp = await fetch(`${url}/api/auth/sign-up`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Origin: url },
+      body: JSON.stringify({ email: uniqueEmail("log"), password: "a long passphrase", name: "Lorne Ledger", organizationName: "Ledgerfold Office" }),
+    });
+    expect(signUp.status).toBe(201);
+    const cookie = signUp.headers.getSetCookie().find((c) => c.startsWith("tagloom_session="))!.split(";")[0]!;
+    const sessionId = cookie.slice("tagloom_session=".length);
+    expect((await fetch(`${url}/api/me`, { headers: { Cookie: cookie } })).status).toBe(200);
+    const token = "tgl_notarealtokenbutshapedlikeonexxxxxxxxxxxxxxx";
+    await fetch(`${url}/api/v1/corpora/00000000-0000-4000-8000-000000000000/tag`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Authorization: `Bearer ${token}` },
+      body: JSON.stringify({ text: "Wren Odalsby signed." }),
+    });
+
+    // pino-http writes its line when the answer is finished; give the last one a moment.
+    const until = Date.now() + 10_000;
+    while (!log.includes("/api/v1/corpora") && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    child.kill("SIGTERM");
+    await new Promise((r) => child.once("exit", r));
+
+    const lines = log.split("\n").filter((l) => l.includes('"request completed"'));
+    const meLine = lines.find((l) => l.includes('"url":"/api/me"'));
+    const signUpLine = lines.find((l) => l.includes('"url":"/api/auth/sign-up"'));
+    const tagLine = lines.find((l) => l.includes("/api/v1/corpora"));
+    // The requests are logged (so the check below looks at real lines)...
+    expect(meLine).toBeDefined();
+    expect(signUpLine).toBeDefined();
+    expect(tagLine).toBeDefined();
+    // ...with the credentials replaced, and nowhere else in the output either.
+    expect(JSON.parse(meLine!).req.headers.cookie).toBe("[redacted]");
+    expect(JSON.parse(signUpLine!).res.headers["set-cookie"]).toBe("[redacted]");
+    expect(JSON.parse(tagLine!).req.headers.authorization).toBe("[redacted]");
+    expect(log).not.toContain(sessionId);
+    expect(log).not.toContain(token);
+  }, 120_000);
+});
