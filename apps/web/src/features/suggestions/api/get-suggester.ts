@@ -9,6 +9,9 @@ export const suggesterQueryOptions = (orgId: string, corpusId: string) =>
   queryOptions({
     queryKey: suggesterQueryKey(orgId, corpusId),
     queryFn: () => api.get<SuggesterStatus>(`/orgs/${orgId}/corpora/${corpusId}/suggester`),
+    // Its candidates change whenever a training run finishes in the worker, which no mutation of
+    // this page knows about: read it afresh on every visit instead of trusting a cached copy.
+    staleTime: 0,
     // While a suggestion run is going, its progress changes by itself.
     refetchInterval: (q) => (q.state.data?.runs.some((r) => r.finishedAt === null) ? 1500 : false),
   });

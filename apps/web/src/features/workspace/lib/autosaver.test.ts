@@ -32,6 +32,39 @@ describe("Autosaver", () => {
     expect(saver.dirty).toBe(false);
   });
 
+  it("a change made while a save is in flight, whose timer fires before that save answers, is saved right after it", async () => {
+    const store = newStore();
+    const calls: SaveAssignmentInput[] = [];
+    let answer: (() => void) | null = null;
+    const saver = new Autosaver({
+      store,
+      version: 1,
+      save: (body) =>
+        new Promise((resolve) => {
+          calls.push(body);
+          answer = () => resolve({ version: body.version + 1, state: "in_progress", updatedAt: "" });
+        }),
+    });
+    store.select(0, 1);
+    store.label("PERSON");
+    await vi.advanceTimersByTimeAsync(800);
+    expect(calls).toHaveLength(1);
+    // The first save is slow; a change made now waits its debounce and finds the save still going.
+    store.moveCursor(6);
+    store.label("PLACE");
+    await vi.advanceTimersByTimeAsync(1000);
+    expect(calls).toHaveLength(1);
+    answer!();
+    await vi.advanceTimersByTimeAsync(1000);
+    expect(calls).toHaveLength(2);
+    expect(calls[1]!.version).toBe(2);
+    expect(calls[1]!.spans.map((s) => s.type)).toEqual(["PERSON", "PLACE"]);
+    answer!();
+    await vi.advanceTimersByTimeAsync(0);
+    expect(saver.status.kind).toBe("saved");
+    expect(saver.dirty).toBe(false);
+  });
+
   it("on a stale version loads the newer one, re-applies my change and saves it with the new version", async () => {
     const store = newStore();
     const calls: SaveAssignmentInput[] = [];

@@ -133,7 +133,10 @@ export class Autosaver {
     }
     this.inFlight = this.attempt().finally(() => {
       this.inFlight = null;
-      if (this.status.kind === "saved" && this.store.version !== this.savedStoreVersion) this.changed();
+      // Changes made while this save was going may have had their timer fire into it (and find it
+      // in flight): schedule them now, or they would wait for the next edit.
+      const settled = this.status.kind === "saved" || this.status.kind === "unsaved";
+      if (settled && this.store.version !== this.savedStoreVersion) this.changed();
     });
     return this.inFlight;
   }
