@@ -5,6 +5,7 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixLogRatio } from "../estimation/suffix-model";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
+import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import type { TaggerModel } from "./tagger-model";
 
 /**
@@ -59,6 +60,9 @@ export type SentenceLattice = {
   stepIndex: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
+  /** Buffers of the Viterbi pass over this lattice, and its path (T entries used). */
+  viterbi: ViterbiWorkspace;
+  path: Int32Array;
 };
 
 type Cache = {
@@ -133,6 +137,8 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     end: null,
     stepIndex: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
+    viterbi: createViterbiWorkspace(K, capacity),
+    path: new Int32Array(capacity),
   };
 }
 
