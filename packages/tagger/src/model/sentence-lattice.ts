@@ -2,10 +2,10 @@ import { contextEmissionLogRatio } from "../estimation/context-emissions";
 import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
-import { suffixLogRatio } from "../estimation/suffix-model";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
+import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 
 /**
@@ -111,8 +111,8 @@ type Cache = {
   end: Float64Array | null;
   keep: Float64Array;
   lattice: SentenceLattice;
-  ratio: Float64Array;
-  scratch: Float64Array;
+  /** The model's suffix statistics as a trie, or null without suffix statistics. */
+  suffix: SuffixTrie | null;
   conditional: Float64Array;
 };
 
@@ -266,8 +266,7 @@ function createCache(model: TaggerModel): Cache {
     end,
     keep,
     lattice: createLattice(K, 64),
-    ratio: new Float64Array(K),
-    scratch: new Float64Array(2 * K),
+    suffix: model.suffix === null ? null : createSuffixTrie(model.suffix),
     conditional: new Float64Array(K),
   };
 }
@@ -308,12 +307,11 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const { emissions } = model.parameters;
   const out = entry * K;
   for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
-  if (symbol >= model.vocabulary.words.length && model.suffix !== null) {
+  if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    suffixLogRatio(model.suffix, word, group, cache.ratio, cache.scratch);
-    for (let k = 0; k < K; k++) cache.wordLog[out + k] += cache.ratio[k];
+    addSuffixLogRatio(cache.suffix, word, group, cache.wordLog, out);
   }
   for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
   map.set(word, entry);
