@@ -2,9 +2,10 @@ import { contextEmissionLogRatio } from "../estimation/context-emissions";
 import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
-import { suffixLogRatio } from "../estimation/suffix-model";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
+import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
+import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 
 /**
@@ -59,6 +60,9 @@ export type SentenceLattice = {
   stepIndex: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
+  /** Buffers of the Viterbi pass over this lattice, and its path (T entries used). */
+  viterbi: ViterbiWorkspace;
+  path: Int32Array;
 };
 
 type Cache = {
@@ -107,8 +111,8 @@ type Cache = {
   end: Float64Array | null;
   keep: Float64Array;
   lattice: SentenceLattice;
-  ratio: Float64Array;
-  scratch: Float64Array;
+  /** The model's suffix statistics as a trie, or null without suffix statistics. */
+  suffix: SuffixTrie | null;
   conditional: Float64Array;
 };
 
@@ -133,6 +137,8 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     end: null,
     stepIndex: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
+    viterbi: createViterbiWorkspace(K, capacity),
+    path: new Int32Array(capacity),
   };
 }
 
@@ -260,8 +266,7 @@ function createCache(model: TaggerModel): Cache {
     end,
     keep,
     lattice: createLattice(K, 64),
-    ratio: new Float64Array(K),
-    scratch: new Float64Array(2 * K),
+    suffix: model.suffix === null ? null : createSuffixTrie(model.suffix),
     conditional: new Float64Array(K),
   };
 }
@@ -302,12 +307,11 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const { emissions } = model.parameters;
   const out = entry * K;
   for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
-  if (symbol >= model.vocabulary.words.length && model.suffix !== null) {
+  if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    suffixLogRatio(model.suffix, word, group, cache.ratio, cache.scratch);
-    for (let k = 0; k < K; k++) cache.wordLog[out + k] += cache.ratio[k];
+    addSuffixLogRatio(cache.suffix, word, group, cache.wordLog, out);
   }
   for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
   map.set(word, entry);

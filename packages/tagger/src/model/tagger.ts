@@ -139,7 +139,8 @@ function calibrated(model: TaggerModel, chunks: readonly { start: number; end: n
 
 /**
  * Viterbi over a cached sentence lattice: the same scores and recursion as decodeSentence, on the
- * JavaScript kernel (the WebAssembly one would copy the cache's whole matrix array per sentence).
+ * JavaScript kernel (the WebAssembly one would copy the cache's whole matrix array per sentence),
+ * into the lattice's reused buffers: the path is lattice.path[0..T), valid until the next build.
  */
 function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
   const K = model.tags.length;
@@ -147,7 +148,7 @@ function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array
   const params = { states: K, start: lattice.logStart, transitions: T > 1 ? lattice.logSteps : model.parameters.transitions.subarray(0, K * K), end: model.parameters.end };
   const input = { length: T, scores: lattice.logEmissions.subarray(0, T * K), rows: null, transitionIndex: T > 1 ? lattice.stepIndex : null };
   checkShapes(params, input, "decodeLattice");
-  return decodeViterbiJs(params, input, new Int32Array(T)).path;
+  return decodeViterbiJs(params, input, lattice.path, lattice.viterbi).path;
 }
 
 /**
@@ -176,6 +177,8 @@ export function tagDocument(model: TaggerModel, sentences: readonly (readonly st
   return sentences.map((words, s) => {
     if (words.length === 0) return [];
     const path = fast ? decodeLattice(model, buildSentenceLattice(model, words)) : decodeSentence(model, words, s).path;
-    return Array.from(path, (k) => model.tags[k]);
+    const tags = new Array<string>(words.length);
+    for (let t = 0; t < words.length; t++) tags[t] = model.tags[path[t]];
+    return tags;
   });
 }
