@@ -6,7 +6,7 @@ import { sessionMiddleware } from "@/auth/session.middleware";
 import { billingWebhookRouter } from "@/billing/billing.routes";
 import { env } from "@/config/env";
 import { errorMiddleware, notFoundHandler } from "@/errors";
-import { logger } from "@/logger";
+import { logger, serializeRequest } from "@/logger";
 import { buildApiRoutes } from "@/routes";
 import { originCheck } from "@/security/origin-check";
 import { authRateLimit } from "@/security/rate-limits";
@@ -46,6 +46,7 @@ export function createApp(options: AppOptions = {}): Express {
         return id;
       },
       autoLogging: { ignore: (req) => req.url === "/api/health" },
+      serializers: { req: serializeRequest },
     }),
   );
 

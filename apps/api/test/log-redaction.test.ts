@@ -21,7 +21,7 @@ const freePort = () =>
   });
 
 describe("request log", () => {
-  it("keeps session cookies, Set-Cookie answers and bearer tokens out of the log lines", async () => {
+  it("keeps session cookies, Set-Cookie answers, bearer tokens and e-mailed link tokens out of the log lines", async () => {
     const port = await freePort();
     const child = spawn(process.execPath, ["--import", "tsx", "src/server.ts"], {
       cwd: join(repoRoot, "apps/api"),
@@ -55,9 +55,16 @@ describe("request log", () => {
       body: JSON.stringify({ text: "Wren Odalsby signed." }),
     });
 
+    // The links e-mails carry: a reset page with its token, an invitation by its token (page and API).
+    const resetToken = "resetsecretvaluethatmustnotbelogged01";
+    const inviteToken = "invitesecretvaluethatmustnotbelogged02";
+    await fetch(`${url}/reset-password?token=${resetToken}&from=mail`);
+    await fetch(`${url}/api/invitations/${inviteToken}`);
+    await fetch(`${url}/api/invitations/${inviteToken}/accept`, { method: "POST", headers: { Origin: url, Cookie: cookie } });
+
     // pino-http writes its line when the answer is finished; give the last one a moment.
     const until = Date.now() + 10_000;
-    while (!log.includes("/api/v1/corpora") && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    while (!log.includes("/accept") && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
     child.kill("SIGTERM");
     await new Promise((r) => child.once("exit", r));
 
@@ -75,5 +82,11 @@ describe("request log", () => {
     expect(JSON.parse(tagLine!).req.headers.authorization).toBe("[redacted]");
     expect(log).not.toContain(sessionId);
     expect(log).not.toContain(token);
+    const resetLine = lines.find((l) => l.includes('"url":"/reset-password'));
+    expect(JSON.parse(resetLine!).req.url).toBe("/reset-password?token=[redacted]&from=mail");
+    expect(JSON.parse(resetLine!).req.query.token).toBe("[redacted]");
+    expect(lines.filter((l) => l.includes('"url":"/api/invitations/[redacted]')).length).toBe(2);
+    expect(log).not.toContain(resetToken);
+    expect(log).not.toContain(inviteToken);
   }, 120_000);
 });

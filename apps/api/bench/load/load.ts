@@ -4,11 +4,18 @@
 // status per scenario, then reads PostgreSQL to check that every save the API acknowledged is
 // there ("acknowledged saves lost: N").
 //
-// The rate limits stay at their defaults (see people.ts for how 110 sessions are opened within
-// the sign-in limit). Each annotator saves LOAD_SAVE_RATE times a second (default 1: the
-// workspace saves at most once a second, after a pause of 800 ms, so this is the most a person
-// at the keyboard can cause); each manager asks for LOAD_PAGE_RATE pages a second (default 2).
-// A rate of 0 sends as fast as the answers come (a saturation run: its latency is then queueing).
+// Sessions and rate limits. The limits stay at their defaults and are not bypassed (the product's
+// environment has no AUTH_RATE_LIMIT or TRUST_PROXY). Sign-in allows 20 attempts per address per
+// 15 minutes and every simulated person comes from 127.0.0.1, so 110 sign-ins cannot all go
+// through the route: the founder's sign-up and the 10 managers' sign-ins do (11 attempts). The
+// annotators are treated as people who signed in earlier, each from their own address, and come
+// back with their 30-day session: each gets one from lucia.createSession (the call the sign-in
+// route makes), stored in the user_session table, and checked with GET /api/me before the run.
+//
+// Pace. Each annotator saves LOAD_SAVE_RATE times a second (default 1: the workspace saves at
+// most once a second, after a pause of 800 ms, so this is the most a person at the keyboard can
+// cause); each manager asks for LOAD_PAGE_RATE pages a second (default 2). A rate of 0 sends as
+// fast as the answers come (a saturation run: its latency is then queueing).
 //
 // Bounded: the run lasts LOAD_SECONDS (default 60) and a watchdog ends everything if setup or the
 // check hangs. Not part of `npm test`; `npm run bench` skips it (bench.sh runs apps/api/bench/*.ts,
@@ -118,12 +125,12 @@ try {
     return `  as the API timed them (pino-http responseTime, ${ms.length} answers): p50 ${r.percentile(50).toFixed(0)}, p95 ${r.percentile(95).toFixed(0)}, p99 ${r.percentile(99).toFixed(0)} ms`;
   };
   console.log(`\n[${elapsed()}] results (${SECONDS} s; load average at the end: ${loadAfter})`);
-  console.log(saves.summary(SECONDS));
+  console.log(saves.summary(SECONDS, org.annotators.length * SAVE_RATE));
   const conflicts = logs.reduce((n, l) => n + l.conflicts, 0);
   const unanswered = logs.reduce((n, l) => n + l.unanswered.length, 0);
   console.log(insideLine(inside.saves));
   console.log(`  saves acknowledged: ${check.acknowledged}; unanswered (timed out or in flight at the end): ${unanswered}; 409 stale_version after one: ${conflicts}`);
-  console.log(pages.summary(SECONDS));
+  console.log(pages.summary(SECONDS, org.managers.length * PAGE_RATE));
   console.log(insideLine(inside.pages));
   console.log(`  pages read: ${paging.pages} (${paging.rows} rows) over ${paging.walks} finished walks; rows met twice within a walk: ${paging.rowsSeenTwice}`);
   const refusals = [...logs.flatMap((l) => l.refusals), ...paging.refusals];

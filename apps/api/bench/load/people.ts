@@ -50,13 +50,9 @@ async function expectStatus(res: Response, status: number, what: string): Promis
  * batch) and `managerCount` managers, in a corpus padded with `extraDocuments` more documents so
  * that the Documents table has many pages.
  *
- * Sessions. Sign-in allows AUTH_RATE_LIMIT (20) attempts per address per 15 minutes, and every
- * simulated person here comes from 127.0.0.1. The founder's sign-up and the managers' sign-ins go
- * through the real routes (11 attempts, inside the limit). In a real deployment the annotators
- * would have signed in earlier, each from their own address, and come back with a session that
- * lives 30 days; that is what they get here: a session created with lucia.createSession, the same
- * call the sign-in route makes, stored in the user_session table, and checked through GET /api/me
- * before the run. The limit stays at its default and is not bypassed.
+ * Sessions: the founder signs up and the managers sign in through the routes (11 attempts, inside
+ * the default sign-in limit of 20 per address per 15 minutes); the annotators come back with a
+ * session made by lucia.createSession, as after an earlier sign-in (load.ts says why).
  */
 export async function createLoadOrg(base: string, opts: { annotatorCount: number; managerCount: number; extraDocuments: number }): Promise<LoadOrg> {
   const { hashPassword } = await import("../../src/auth/passwords");

@@ -50,13 +50,14 @@ export class Recorder {
     return n;
   }
 
-  summary(seconds: number): string {
+  /** `offered`: requests a second the scenario would send if every answer came at once (0: unpaced). */
+  summary(seconds: number, offered = 0): string {
     const total = this.latencies.length;
     const byStatus = [...this.statuses.entries()].sort(([a], [b]) => a - b).map(([s, c]) => `${s}: ${c}`).join(", ");
     const notOk = [...this.statuses.entries()].filter(([s]) => s >= 300).sort(([a], [b]) => a - b).map(([s, c]) => `${s}: ${c}`).join(", ");
     const f = (x: number) => x.toFixed(1);
     return [
-      `${this.name}: ${total} requests, ${(total / seconds).toFixed(1)} requests/s`,
+      `${this.name}: ${total} requests, ${(total / seconds).toFixed(1)} requests/s${offered > 0 ? ` (paced at most ${offered}/s)` : " (unpaced)"}`,
       `  latency ms: p50 ${f(this.percentile(50))}, p95 ${f(this.percentile(95))}, p99 ${f(this.percentile(99))}, max ${f(this.percentile(100))}`,
       `  p95 ms per 10 s window: ${this.windowedP95(10)}`,
       `  answers by status: ${byStatus || "none"}`,
