@@ -21,7 +21,9 @@ const { createAnnotationData } = await import("../support/annotation-data");
 // errors, 5xx and 429 retry after 1, 2, 4, 8, then every 15 s; a stale version (409) takes the
 // server's version and sends the unsaved work again at once.
 const BACKOFF_MS = [1000, 2000, 4000, 8000, 15000];
-const TYPING_PAUSE_MS = 80;
+// Quicker than a person marks words (the web client saves at most about once a second), so that
+// several saves are in flight whenever PostgreSQL goes away: the case that used to answer 500.
+const TYPING_PAUSE_MS = 20;
 const WORDS = ["brell", "quon", "tavish", "morrow", "pellin", "ostrel", "viska", "dunmore", "halvey", "sorrel"];
 const ANNOTATORS = 4;
 const DOCUMENTS_EACH = 2;
@@ -54,7 +56,7 @@ beforeAll(async () => {
   const admin = await signUpFounder(server, { organizationName: "Restart Marsh Bureau" });
   orgId = admin.orgId;
   const annotators = await Promise.all(Array.from({ length: ANNOTATORS }, (_, i) => addSignedInMember(server, orgId, "annotator", `Saver ${i + 1}`)));
-  const text = Array.from({ length: 60 }, (_, i) => WORDS[i % WORDS.length]).join(" ") + ".";
+  const text = Array.from({ length: 400 }, (_, i) => WORDS[i % WORDS.length]).join(" ") + ".";
   const data = await createAnnotationData(orgId, { userId: admin.userId, email: admin.email }, {
     types: [{ name: "PLACE" }],
     documents: Array.from({ length: ANNOTATORS * DOCUMENTS_EACH }, (_, i) => ({ title: `Field sheet ${i + 1}`, text })),

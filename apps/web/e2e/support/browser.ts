@@ -16,8 +16,8 @@ const ARGS = [
 export type BrowserSession = {
   baseUrl: string;
   mailUrl: string;
-  /** A new isolated browser context (its own cookies) with a page open. */
-  newPage(): Promise<{ context: BrowserContext; page: Page }>;
+  /** A new isolated browser context (its own cookies) with a page open; `baseUrl` for a private product. */
+  newPage(options?: { baseUrl?: string; viewport?: { width: number; height: number } }): Promise<{ context: BrowserContext; page: Page }>;
 };
 
 /** Launches Chromium for this test file and closes it afterwards. Fails the page on errors. */
@@ -35,9 +35,9 @@ export function useBrowser(): BrowserSession {
   return {
     baseUrl,
     mailUrl: inject("mailUrl"),
-    async newPage() {
+    async newPage(options = {}) {
       if (!browser) throw new Error("browser not started");
-      const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 860 } });
+      const context = await browser.newContext({ baseURL: options.baseUrl ?? baseUrl, viewport: options.viewport ?? { width: 1280, height: 860 } });
       contexts.push(context);
       const page = await context.newPage();
       // Any request to another host would be a leak (fonts, scripts): refuse and record it.

@@ -17,6 +17,8 @@ export type Product = {
   demoToken?: string | null;
   demoCorpusId?: string | null;
   stop: () => Promise<void>;
+  /** Stops the payments fake alone (the payments service is down; the rest keeps running). */
+  stopPayments: () => Promise<void>;
 };
 
 function freePort(): Promise<number> {
@@ -147,6 +149,7 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
         await started.payments.stop();
         started.pg.stop();
       },
+      stopPayments: () => started.payments.stop(),
     };
   } catch (err) {
     await Promise.all(children.map(stopChild));

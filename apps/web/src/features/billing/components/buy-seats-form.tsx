@@ -4,13 +4,14 @@ import { Button } from "@/components/ui/button";
 import { Card, Notice } from "@/components/ui/card";
 import { Field, Input } from "@/components/ui/field";
 import { useStartCheckout } from "../api/start-checkout";
-import { readSeats } from "./seats-input";
+import { placeSeatsError, readSeats } from "./seats-input";
 
 /** Free plan: choose a seat count and go to the payments service's checkout page. */
 export function BuySeatsForm({ orgId, state }: { orgId: string; state: BillingState }) {
   const minimum = Math.max(state.seatsUsed, state.freeSeats + 1);
   const [text, setText] = useState(String(Math.max(minimum, state.seatsUsed + 2)));
   const [error, setError] = useState<string | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
   const checkout = useStartCheckout(orgId);
   return (
     <Card>
@@ -27,7 +28,15 @@ export function BuySeatsForm({ orgId, state }: { orgId: string; state: BillingSt
           const r = readSeats(text, minimum, `Choose at least ${minimum} seats: more than the free plan's ${state.freeSeats}, and enough for the ${state.seatsUsed} in use.`);
           if ("error" in r) return setError(r.error);
           setError(null);
-          checkout.mutate(r.seats, { onSuccess: (started) => window.location.assign(started.url), onError: (err) => setError(err.message) });
+          setFormError(null);
+          checkout.mutate(r.seats, {
+            onSuccess: (started) => window.location.assign(started.url),
+            onError: (err) => {
+              const place = placeSeatsError(err);
+              if ("field" in place) setError(place.field);
+              else setFormError(place.form);
+            },
+          });
         }}
       >
         <Field label="Seats" error={error ?? undefined}>
@@ -39,6 +48,11 @@ export function BuySeatsForm({ orgId, state }: { orgId: string; state: BillingSt
           </Button>
         </div>
       </form>
+      {formError ? (
+        <Notice tone="error" className="mt-3">
+          {formError}
+        </Notice>
+      ) : null}
       {state.checkoutPending ? (
         <Notice className="mt-4">A checkout was started and its payment is not confirmed yet. This page updates when the payments service confirms it.</Notice>
       ) : null}

@@ -48,6 +48,8 @@ describe("ChangeSeatsForm", () => {
     await userEvent.type(screen.getByLabelText("Seats"), "10");
     await userEvent.click(screen.getByRole("button", { name: "Save seats" }));
     expect(await screen.findByText("The payments service cannot be reached right now.")).toBeInTheDocument();
+    // An outage is not a wrong number: the field is not marked invalid.
+    expect(screen.getByLabelText("Seats")).toHaveAttribute("aria-invalid", "false");
     expect(body).toEqual({ seats: 10 });
   });
 });

@@ -1,18 +1,19 @@
 import type { BillingState } from "@tagloom/contracts";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
-import { Card } from "@/components/ui/card";
+import { Card, Notice } from "@/components/ui/card";
 import { Field, Input } from "@/components/ui/field";
 import { useToast } from "@/components/ui/toaster";
 import { useChangeSeats } from "../api/change-seats";
 import { plural } from "./format-billing";
-import { readSeats } from "./seats-input";
+import { placeSeatsError, readSeats } from "./seats-input";
 
 /** Paid plan: raise or lower the seat count (never below the seats in use). */
 export function ChangeSeatsForm({ orgId, state }: { orgId: string; state: BillingState }) {
   const paid = state.subscription?.seats ?? state.seatLimit;
   const [text, setText] = useState(String(paid));
   const [error, setError] = useState<string | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
   const change = useChangeSeats(orgId);
   const toast = useToast();
   return (
@@ -34,7 +35,15 @@ export function ChangeSeatsForm({ orgId, state }: { orgId: string; state: Billin
           );
           if ("error" in r) return setError(r.error);
           setError(null);
-          change.mutate(r.seats, { onSuccess: (s) => toast.show(`You now pay for ${s.subscription?.seats ?? r.seats} seats.`, "success"), onError: (err) => setError(err.message) });
+          setFormError(null);
+          change.mutate(r.seats, {
+            onSuccess: (s) => toast.show(`You now pay for ${s.subscription?.seats ?? r.seats} seats.`, "success"),
+            onError: (err) => {
+              const place = placeSeatsError(err);
+              if ("field" in place) setError(place.field);
+              else setFormError(place.form);
+            },
+          });
         }}
       >
         <Field label="Seats" error={error ?? undefined}>
@@ -46,6 +55,11 @@ export function ChangeSeatsForm({ orgId, state }: { orgId: string; state: Billin
           </Button>
         </div>
       </form>
+      {formError ? (
+        <Notice tone="error" className="mt-3">
+          {formError}
+        </Notice>
+      ) : null}
     </Card>
   );
 }
