@@ -39,6 +39,8 @@ export type JourneyOptions = {
   mailUrl?: string;
   /** Where the per-step screenshots go; null for none. */
   artifactsDir: string | null;
+  /** Only the screenshot of a failed step (keeps timing runs free of screenshot work). */
+  screenshotFailuresOnly?: boolean;
   /** Makes the e-mail addresses and names unique on a shared product. */
   stamp: string;
 };
@@ -75,7 +77,7 @@ function unionLength(intervals: Array<[number, number]>): number {
   return total;
 }
 
-type ApiRecord = { interval: [number, number]; label: string };
+type ApiRecord = { interval: [number, number]; label: string; role: Role };
 
 /** One walk: the browser contexts of its people, what it has made so far, and its timings. */
 export class Journey {
@@ -90,11 +92,11 @@ export class Journey {
   readonly corpusName: string;
   readonly orgName: string;
   readonly files = journeyFiles();
-  private api: ApiRecord[] = [];
+  /** Every API request of the walk, in wall-clock ms (the browser's resource timing). */
+  private readonly api: ApiRecord[] = [];
   private signInAt: number | null = null;
   private shotMs = 0;
   private shotsAtSignIn = 0;
-  private shots = 0;
   private failedStep: string | null = null;
 
   constructor(readonly options: JourneyOptions) {
@@ -115,9 +117,10 @@ export class Journey {
   async run(step: JourneyStep): Promise<void> {
     if (this.failedStep) throw new JourneyError(`not run: the step "${this.failedStep}" failed before it`);
     const problemsBefore = this.problems.length;
-    this.api = [];
     this.lastPage = null;
+    this.stepRoles.clear();
     const started = performance.now();
+    const from = Date.now();
     let timer: NodeJS.Timeout | undefined;
     try {
       await Promise.race([
@@ -128,20 +131,22 @@ export class Journey {
       ]);
     } catch (err) {
       this.failedStep = step.name;
-      await this.screenshot(`${step.name} (failed)`).catch(() => undefined);
+      await this.screenshot(`${step.name} (failed)`, true).catch(() => undefined);
       throw err;
     } finally {
       clearTimeout(timer);
     }
     const browserMs = performance.now() - started;
-    // Requests still in flight when the step ended count towards it when they finish.
+    const to = Date.now();
+    // A request the step started counts towards it (up to the step's end); let the last ones report.
     await new Promise((r) => setTimeout(r, 50));
-    const records = this.api;
+    // Only the people acting in the step: a page left open elsewhere (polling) is not its cost.
+    const records = this.api.filter((r) => r.interval[0] >= from && r.interval[0] <= to && this.stepRoles.has(r.role));
     const slowest = records.reduce<ApiRecord | null>((a, r) => (!a || r.interval[1] - r.interval[0] > a.interval[1] - a.interval[0] ? r : a), null);
     this.timings.push({
       name: step.name,
       browserMs,
-      apiMs: unionLength(records.map((r) => r.interval)),
+      apiMs: unionLength(records.map((r): [number, number] => [r.interval[0], Math.min(r.interval[1], to)])),
       apiRequests: records.length,
       slowestMs: slowest ? slowest.interval[1] - slowest.interval[0] : 0,
       slowest: slowest?.label ?? "",
@@ -189,38 +194,41 @@ export class Journey {
     context.on("response", (r) => {
       if (r.status() >= 500) this.problems.push(`${role}: ${r.status()} from ${r.request().method()} ${r.url()}`);
     });
-    context.on("requestfinished", (r) => this.recordApi(r));
+    context.on("requestfinished", (r) => this.recordApi(r, role));
     m.context = context;
     m.page = await context.newPage();
     return m.page;
   }
 
-  private recordApi(r: Request): void {
+  private recordApi(r: Request, role: Role): void {
     const url = new URL(r.url());
     if (url.origin !== this.options.baseUrl || !url.pathname.startsWith("/api/")) return;
     const t = r.timing();
     if (t.responseEnd < 0) return;
     const start = t.startTime + Math.max(0, t.requestStart);
-    this.api.push({ interval: [start, t.startTime + t.responseEnd], label: `${r.method()} ${url.pathname.replace(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g, ":id")}` });
+    this.api.push({ interval: [start, t.startTime + t.responseEnd], label: `${r.method()} ${url.pathname.replace(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g, ":id")}`, role });
   }
 
   /** Saves the page last used by each person who has one open, as `NN-step-role.png`. */
-  private async screenshot(name: string): Promise<void> {
+  private async screenshot(name: string, failed = false): Promise<void> {
     const dir = this.options.artifactsDir;
-    if (!dir) return;
+    if (!dir || (this.options.screenshotFailuresOnly && !failed)) return;
     const t = performance.now();
     fs.mkdirSync(dir, { recursive: true });
-    this.shots += 1;
     const slug = name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "");
     const page = this.lastPage;
-    if (page && !page.isClosed()) await page.screenshot({ path: path.join(dir, `${String(this.shots).padStart(2, "0")}-${slug}.png`), fullPage: true, timeout: WAIT_MS });
+    if (page && !page.isClosed()) await page.screenshot({ path: path.join(dir, `${String(this.timings.length + (failed ? 1 : 0)).padStart(2, "0")}-${slug}.png`), fullPage: true, timeout: WAIT_MS });
     this.shotMs += performance.now() - t;
   }
 
   /** Counts a request the test made itself (not the browser) as API time of the step. */
   recordFetch(startedAt: number, label: string): void {
-    this.api.push({ interval: [startedAt, Date.now()], label });
+    this.api.push({ interval: [startedAt, Date.now()], label, role: "lead" });
+    this.stepRoles.add("lead");
   }
+
+  /** Who acts in the current step. */
+  private readonly stepRoles = new Set<Role>();
 
   /** The page the current step worked in last (for its screenshot). */
   lastPage: Page | null = null;
@@ -228,6 +236,7 @@ export class Journey {
   /** The person's page, remembered as the one to screenshot. */
   async use(role: Role): Promise<Page> {
     const page = await this.page(role);
+    this.stepRoles.add(role);
     this.lastPage = page;
     return page;
   }

@@ -14,6 +14,9 @@ export const corporaQueryOptions = (orgId: string, archived: CorporaFilter) =>
     queryFn: ({ pageParam }) => getCorpora(orgId, archived, pageParam),
     initialPageParam: undefined as string | undefined,
     getNextPageParam: (last) => last.nextCursor ?? undefined,
+    // Other members create corpora (a data lead opens Corpora right after the manager made one):
+    // read the list afresh on each visit, as the queue does.
+    staleTime: 0,
   });
 
 export function useCorpora(orgId: string, archived: CorporaFilter = "false", { enabled = true }: { enabled?: boolean } = {}) {
