@@ -180,3 +180,61 @@ describe("what an annotator may not see", () => {
     expect(messages).toEqual([]);
   });
 });
+
+describe("the details people rely on", () => {
+  it("queue: Start next keeps its place and submitted work moves to Done; the save badge says what is true; the nav and back links name the right area", async () => {
+    const [ines] = team.annotators;
+    const annotator = new ApiClient(session.baseUrl);
+    await annotator.call("POST", "/auth/sign-in", { email: ines.email, password: ines.password });
+    const base = `/orgs/${team.orgId}/corpora/${team.corpusId}/assignments/${assignmentId}`;
+    const opened = await annotator.call<{ version: number; document: { title: string; text: string } }>("GET", base);
+    const saved = await annotator.call<{ version: number }>("PUT", base, { version: opened.version, spans: [{ start: 0, end: 4, type: "PERSON" }], dismissedSuggestions: [] });
+    const title = opened.document.title;
+
+    const { page, messages } = await openAt(1440, ines);
+    const current = () => page.getByRole("navigation", { name: "Areas" }).locator('[aria-current="page"]').textContent();
+    // Start next comes first in its box, left of the title, so a long title cannot push it about.
+    await page.goto(org("/queue"));
+    const start = page.getByRole("link", { name: /^Start next/ });
+    await start.waitFor();
+    const box = (await start.boundingBox())!;
+    const titleBox = (await page.getByText(title, { exact: true }).first().boundingBox())!;
+    expect(box.x).toBeLessThan(titleBox.x);
+    expect(await current()).toBe("My queue");
+
+    // A reload of saved work says when it was saved, not "No changes yet".
+    await page.goto(corpus(`/assignments/${assignmentId}`));
+    await page.getByTestId("document-text").waitFor();
+    expect(await current()).toBe("My queue");
+    await page.reload();
+    await page.getByTestId("document-text").waitFor();
+    expect(await page.locator("[data-save-state]").textContent()).toMatch(/^Saved \d{1,2}[:.]\d{2}/);
+    await annotator.call("POST", `${base}/submit`, { version: saved.version });
+    await page.reload();
+    await page.getByTestId("document-text").waitFor();
+    expect(await page.locator("[data-save-state]").textContent()).toBe("Submitted");
+
+    // Submitted work is listed under Done.
+    await page.goto(org("/queue"));
+    await page.getByRole("heading", { name: "Done" }).waitFor();
+    await page.getByRole("table", { name: "Done" }).getByRole("link", { name: title }).waitFor();
+    expect(messages).toEqual([]);
+
+    // The manager: batch and review pages belong to Batches and Review, and the read-only
+    // assignment opened from a review goes back to it.
+    const m = await openAt(1440, team.manager);
+    const mcurrent = () => m.page.getByRole("navigation", { name: "Areas" }).locator('[aria-current="page"]').textContent();
+    await m.page.goto(corpus(`/batches/${batchId}`));
+    await heading(/Quay readings/)(m.page);
+    expect(await mcurrent()).toBe("Batches");
+    await m.page.getByRole("table", { name: "Documents of the batch" }).getByRole("link", { name: /Review/ }).first().click();
+    await m.page.getByRole("heading", { name: `Review: ${title}` }).waitFor();
+    expect(await mcurrent()).toBe("Review");
+    await m.page.getByRole("link", { name: "Open read-only" }).click();
+    await m.page.getByTestId("document-text").waitFor();
+    expect(await mcurrent()).toBe("Review");
+    await m.page.getByRole("link", { name: "← Review" }).click();
+    await m.page.getByRole("heading", { name: `Review: ${title}` }).waitFor();
+    expect(m.messages).toEqual([]);
+  });
+});

@@ -104,12 +104,22 @@ describe("training in the browser", () => {
     await shoot(page, "compare");
     const disagreements = page.getByRole("list", { name: "Documents where the taggers disagree" });
     {
+      // An in-app navigation: a mark on the window survives it and would be gone after a reload.
+      // (A table's page-index reset loop once starved this navigation: URL changed, screen did not.)
+      await page.evaluate(() => Object.assign(window, { sameDocument: true }));
+      const title = await disagreements.getByRole("link").first().textContent();
       await disagreements.getByRole("link").first().click();
       await page.getByRole("region", { name: "Gold" }).waitFor();
+      expect(await page.getByRole("heading", { level: 2 }).first().textContent()).toBe(title);
+      expect(await page.evaluate(() => "sameDocument" in window)).toBe(true);
       await page.getByRole("region", { name: /^A: Tagger v2/ }).waitFor();
       await page.getByRole("region", { name: /^B: Tagger v1/ }).waitFor();
       await page.getByRole("group", { name: "Key" }).getByTitle("PLACE").waitFor();
       await shoot(page, "compare-document");
+      // And back to the comparison, still without a reload.
+      await page.getByRole("link", { name: "← Comparison" }).click();
+      await disagreements.waitFor();
+      expect(await page.evaluate(() => "sameDocument" in window)).toBe(true);
     }
     expect(errors).toEqual([]);
   }, 180_000);

@@ -1,5 +1,6 @@
 import { type AuditEvent, auditActionLabel } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useState } from "react";
 import { DataTable } from "@/components/ui/data-table";
 import { Button } from "@/components/ui/button";
@@ -88,6 +89,6 @@ const columns = [
 ];
 
 function AuditTable({ events }: { events: AuditEvent[] }) {
-  const table = useReactTable({ data: events, columns, getCoreRowModel: getCoreRowModel(), getRowId: (e) => e.id });
+  const table = useDataTable({ data: events, columns, getRowId: (e) => e.id });
   return <DataTable table={table} flexRender={flexRender} caption="Audit events" />;
 }

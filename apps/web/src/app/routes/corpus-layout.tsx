@@ -5,6 +5,7 @@ import { paths } from "@/config/paths";
 import { useCorpus } from "@/features/corpora/api/get-corpus";
 import { ExportButtons } from "@/features/exports/components/export-buttons";
 import { useCurrentOrg } from "@/features/orgs/hooks/use-current-org";
+import { useFileViewsSync } from "@/features/uploads/api/sync-file-views";
 import { cn } from "@/lib/cn";
 import { formatCount } from "@/lib/format";
 import { NotFoundRoute } from "./not-found";
@@ -14,6 +15,8 @@ export function CorpusLayoutRoute() {
   const org = useCurrentOrg();
   const { corpusId = "" } = useParams();
   const corpus = useCorpus(org.organizationId, corpusId);
+  // While files are being read, the header, the files table and upload results refresh together.
+  useFileViewsSync(org.organizationId, corpusId, (corpus.data?.pendingFiles ?? 0) > 0);
   if (corpus.isPending) return <Skeleton />;
   if (corpus.isError) {
     if ("status" in corpus.error && corpus.error.status === 404) return <NotFoundRoute />;

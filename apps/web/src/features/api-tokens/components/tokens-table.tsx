@@ -1,5 +1,6 @@
 import type { ApiToken } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
@@ -46,7 +47,7 @@ export function TokensTable({ orgId, tokens }: { orgId: string; tokens: ApiToken
     ],
     [revoke],
   );
-  const table = useReactTable({ data: tokens, columns, getCoreRowModel: getCoreRowModel(), getRowId: (t) => t.id });
+  const table = useDataTable({ data: tokens, columns, getRowId: (t) => t.id });
   return (
     <div className="space-y-3">
       {error ? <Notice tone="error">{error}</Notice> : null}

@@ -1,5 +1,6 @@
 import { type BatchSummary, batchStateOf, batchStateStates } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { DueDate } from "@/components/ui/due-date";
@@ -27,6 +28,6 @@ export function BatchesTable({ batches, corpusName, linkTo }: { batches: BatchSu
     col.display({ id: "progress", header: "Assignments", cell: (c) => <ProgressBar counts={c.row.original.assignments} label={c.row.original.name} /> }),
     col.accessor("createdBy", { header: "Made by", cell: (c) => c.getValue() ?? "—" }),
   ];
-  const table = useReactTable({ data: batches, columns, getCoreRowModel: getCoreRowModel(), getRowId: (b) => b.id });
+  const table = useDataTable({ data: batches, columns, getRowId: (b) => b.id });
   return <DataTable table={table} flexRender={flexRender} caption="Batches" />;
 }

@@ -9,8 +9,6 @@ export const corpusQueryOptions = (orgId: string, corpusId: string) =>
   queryOptions({
     queryKey: [...corpusKey(orgId, corpusId), "detail"],
     queryFn: () => getCorpus(orgId, corpusId),
-    // While files are waiting for or in extraction, the counts change by themselves.
-    refetchInterval: (q) => ((q.state.data?.pendingFiles ?? 0) > 0 ? 1500 : false),
   });
 
 export function useCorpus(orgId: string, corpusId: string) {

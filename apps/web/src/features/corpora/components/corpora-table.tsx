@@ -1,5 +1,6 @@
 import type { CorpusSummary } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { formatCount } from "@/lib/format";
@@ -31,6 +32,6 @@ const columns = [
 /** The organization's corpora with their sizes; each name opens the corpus. */
 export function CorporaTable({ corpora, linkTo }: { corpora: CorpusSummary[]; linkTo: (corpusId: string) => string }) {
   const meta: TableMeta = { linkTo };
-  const table = useReactTable({ data: corpora, columns, meta, getCoreRowModel: getCoreRowModel(), getRowId: (c) => c.id });
+  const table = useDataTable({ data: corpora, columns, meta, getRowId: (c) => c.id });
   return <DataTable table={table} flexRender={flexRender} caption="Corpora" />;
 }

@@ -1,5 +1,6 @@
 import { type AnnotationStatus, type DocumentListItem, type DocumentSort, annotationStatusLabels, annotationStatusStates, annotationStatuses, countOf, splitLabels } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, type RowSelectionState, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender, type RowSelectionState } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { type ReactNode, useEffect, useState } from "react";
 import { Link } from "react-router";
 import { Button } from "@/components/ui/button";
@@ -136,11 +137,10 @@ export function DocumentsTable({
 
 
   const meta: TableMeta = { linkTo, sort, dir, onSort };
-  const table = useReactTable({
+  const table = useDataTable({
     data: docs.data?.items ?? [],
     columns: canManage ? managerColumns : dataColumns,
     meta,
-    getCoreRowModel: getCoreRowModel(),
     getRowId: (d) => d.id,
     enableRowSelection: canManage,
     state: { rowSelection: selection },

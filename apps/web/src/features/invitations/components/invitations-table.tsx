@@ -1,5 +1,6 @@
 import { type Invitation, roleLabels } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
@@ -78,7 +79,7 @@ export function InvitationsTable({ orgId, invitations }: { orgId: string; invita
     ],
     [resend, revoke, toast],
   );
-  const table = useReactTable({ data: invitations, columns, getCoreRowModel: getCoreRowModel(), getRowId: (i) => i.id });
+  const table = useDataTable({ data: invitations, columns, getRowId: (i) => i.id });
   return (
     <div className="space-y-3">
       {error ? <Notice tone="error">{error}</Notice> : null}

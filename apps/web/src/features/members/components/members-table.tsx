@@ -1,5 +1,6 @@
 import { type Member, type Role, roleLabels, roles } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Notice } from "@/components/ui/card";
@@ -86,7 +87,7 @@ export function MembersTable({ orgId, members, canManage, currentUserId }: { org
     ],
     [canManage, changeRole, remove, confirming, currentUserId],
   );
-  const table = useReactTable({ data: members, columns, getCoreRowModel: getCoreRowModel(), getRowId: (m) => m.userId });
+  const table = useDataTable({ data: members, columns, getRowId: (m) => m.userId });
   return (
     <div className="space-y-3">
       {error ? <Notice tone="error">{error}</Notice> : null}

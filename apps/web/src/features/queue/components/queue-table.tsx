@@ -1,5 +1,6 @@
 import { type QueueItem, assignmentStateStates } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { DueDate } from "@/components/ui/due-date";
@@ -48,6 +49,6 @@ export function QueueTable({ items, linkTo, finished = false, caption = "My queu
       ),
     }),
   ];
-  const table = useReactTable({ data: items, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.assignmentId });
+  const table = useDataTable({ data: items, columns, getRowId: (r) => r.assignmentId });
   return <DataTable table={table} flexRender={flexRender} caption={caption} />;
 }

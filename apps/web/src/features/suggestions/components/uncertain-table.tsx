@@ -1,5 +1,6 @@
 import { type UncertainDocument, type UncertainRanking, countOf } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
@@ -71,7 +72,7 @@ export function UncertainTable({
     ],
     [batchLink, linkTo, selected],
   );
-  const table = useReactTable({ data: ranking.items, columns, getCoreRowModel: getCoreRowModel(), getRowId: (d) => d.id });
+  const table = useDataTable({ data: ranking.items, columns, getRowId: (d) => d.id });
   return (
     <div className="space-y-3">
       {batchLink ? (

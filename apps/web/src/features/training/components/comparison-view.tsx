@@ -1,8 +1,9 @@
 import type { TaggerComparison } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
 import { Link } from "react-router";
 import { Card, Notice } from "@/components/ui/card";
 import { DataTable } from "@/components/ui/data-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { paths } from "@/config/paths";
 import { score } from "./run-status";
 import { UserText } from "@/components/ui/user-text";
@@ -29,7 +30,7 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
     col.accessor("f1Difference", { header: "B − A", cell: (x) => <span className="tabular-nums">{signed(x.getValue())}</span> }),
   ];
   const rows: Row[] = [{ type: "all types", a: c.overall.a, b: c.overall.b, f1Difference: c.overall.f1Difference }, ...c.types];
-  const table = useReactTable({ data: rows, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.type });
+  const table = useDataTable({ data: rows, columns, getRowId: (r) => r.type });
   const bs = c.bootstrap;
   return (
     <div className="space-y-4">
@@ -75,8 +76,7 @@ export function ComparisonView({ orgId, corpusId, comparison: c }: { orgId: stri
           <ul className="divide-y divide-ink-50" aria-label="Documents where the taggers disagree">
             {c.disagreements.map((d) => (
               <li key={d.documentId} className="flex flex-wrap items-center justify-between gap-2 py-2 text-sm">
-                {/* A full page load: an in-app navigation to this view left the previous screen up in Chromium (cause not found yet). */}
-                <Link reloadDocument className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
+                <Link className="font-medium text-ink-900 hover:underline" to={paths.org.compareDocument.build(orgId, corpusId, c.a.id, c.b.id, d.documentId)}>
                   <UserText>{d.title}</UserText>
                 </Link>
                 <span className="text-xs text-ink-500 tabular-nums">

@@ -1,5 +1,6 @@
 import type { RunIteration } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { DataTable } from "@/components/ui/data-table";
 import { formatBytes } from "@/lib/format";
 import { LineFigure } from "./line-chart";
@@ -18,7 +19,7 @@ const columns = [
  * holds a full distribution, which the "statistics held" column shows.
  */
 export function IterationsView({ iterations, method }: { iterations: RunIteration[]; method: "em" | "sample" | "none" }) {
-  const table = useReactTable({ data: iterations, columns, getCoreRowModel: getCoreRowModel() });
+  const table = useDataTable({ data: iterations, columns });
   if (iterations.length === 0) return <p className="text-sm text-ink-500">No passes yet.</p>;
   return (
     <div className="grid gap-3 lg:grid-cols-2">

@@ -1,5 +1,6 @@
 import type { TrainingRun } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { paths } from "@/config/paths";
@@ -49,6 +50,6 @@ export function RunsTable({ orgId, corpusId, runs }: { orgId: string; corpusId: 
     }),
     col.accessor("createdAt", { header: "Started", cell: (c) => formatAgo(c.getValue()) }),
   ];
-  const table = useReactTable({ data: runs, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+  const table = useDataTable({ data: runs, columns, getRowId: (r) => r.id });
   return <DataTable table={table} flexRender={flexRender} caption="Training runs" />;
 }

@@ -1,5 +1,6 @@
 import type { Evaluation, Tagger, TrainingRun } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useState } from "react";
 import { Link, useNavigate } from "react-router";
 import { Button } from "@/components/ui/button";
@@ -71,8 +72,8 @@ export function TaggerView({
   const e = tagger.evaluation;
   const navigate = useNavigate();
   const [other, setOther] = useState(others[0]?.id ?? "");
-  const types = useReactTable({ data: e.types, columns: typeColumns, getCoreRowModel: getCoreRowModel() });
-  const curve = useReactTable({ data: e.learningCurve, columns: curveColumns, getCoreRowModel: getCoreRowModel() });
+  const types = useDataTable({ data: e.types, columns: typeColumns });
+  const curve = useDataTable({ data: e.learningCurve, columns: curveColumns });
   const cv = e.crossValidation;
   return (
     <div className="space-y-4">

@@ -1,5 +1,6 @@
 import type { Tagger } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { paths } from "@/config/paths";
@@ -36,6 +37,6 @@ export function TaggersTable({ orgId, corpusId, taggers, suggesterId }: { orgId:
     col.display({ id: "docs", header: "Test documents", cell: (c) => c.row.original.evaluation.documents }),
     col.accessor("createdAt", { header: "Made", cell: (c) => formatAgo(c.getValue()) }),
   ];
-  const table = useReactTable({ data: taggers, columns, getCoreRowModel: getCoreRowModel(), getRowId: (t) => t.id });
+  const table = useDataTable({ data: taggers, columns, getRowId: (t) => t.id });
   return <DataTable table={table} flexRender={flexRender} caption="Taggers" />;
 }

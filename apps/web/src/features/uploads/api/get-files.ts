@@ -13,13 +13,12 @@ export const filesQueryOptions = (orgId: string, corpusId: string, params: Files
     queryKey: [...corpusKey(orgId, corpusId), "files", params],
     queryFn: () => getFiles(orgId, corpusId, params),
     placeholderData: keepPreviousData,
-    refetchInterval: (q) => {
-      const c = q.state.data?.counts;
-      return c && c.queued + c.processing > 0 ? 1500 : false;
-    },
   });
 
-/** Files of the corpus with counts per state, refreshed while any file is queued or processing. */
+/**
+ * Files of the corpus with counts per state. While any is queued or processing, the corpus frame
+ * refreshes this list together with the header and upload results (see sync-file-views.ts).
+ */
 export function useFiles(orgId: string, corpusId: string, params: FilesParams) {
   return useQuery(filesQueryOptions(orgId, corpusId, params));
 }

@@ -2,6 +2,7 @@ import type { SpanMode, UploadResult } from "@tagloom/contracts";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corpusKey } from "./keys";
+import { refreshFileViews } from "./sync-file-views";
 
 export type UploadRequest = { files: File[]; spanMode: SpanMode; defaultSplit: "" | "train" | "test" };
 
@@ -17,7 +18,12 @@ export function uploadFiles(orgId: string, corpusId: string, req: UploadRequest)
 export function useUploadFiles(orgId: string, corpusId: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (req: UploadRequest) => uploadFiles(orgId, corpusId, req),
-    onSettled: () => qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId) }),
+    // The new upload's results, the files table and the header's counts arrive together.
+    mutationFn: async (req: UploadRequest) => {
+      const result = await uploadFiles(orgId, corpusId, req);
+      await refreshFileViews(qc, orgId, corpusId, [result.upload.id]);
+      return result;
+    },
+    onError: () => qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId) }),
   });
 }

@@ -1,5 +1,6 @@
 import { type FileState, type UploadFile, fileStateLabels, fileStateStates, fileStates } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { DataTable } from "@/components/ui/data-table";
@@ -38,7 +39,7 @@ export function FilesTable({ orgId, corpusId }: { orgId: string; corpusId: strin
   const [state, setState] = useState<FileState | "all">("all");
   const [cursors, setCursors] = useState<string[]>([]);
   const files = useFiles(orgId, corpusId, { state: state === "all" ? undefined : state, cursor: cursors[cursors.length - 1] });
-  const table = useReactTable({ data: files.data?.items ?? [], columns, getCoreRowModel: getCoreRowModel(), getRowId: (f) => f.id });
+  const table = useDataTable({ data: files.data?.items ?? [], columns, getRowId: (f) => f.id });
   const counts = files.data?.counts;
   const total = counts ? counts.queued + counts.processing + counts.ready + counts.failed : 0;
   return (

@@ -2,7 +2,9 @@ import type { UploadFile, UploadLimits, UploadResult } from "@tagloom/contracts"
 import { configure, screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { HttpResponse, http } from "msw";
+import type { ReactNode } from "react";
 import { describe, expect, it } from "vitest";
+import { useFileViewsSync } from "../api/sync-file-views";
 import { server } from "@/testing/server";
 import { renderWithProviders } from "@/testing/test-utils";
 import { planUploads } from "./plan-uploads";
@@ -50,6 +52,12 @@ describe("planUploads", () => {
   });
 });
 
+/** The corpus frame's clock, which refreshes upload results while files are pending. */
+function WithClock({ children }: { children: ReactNode }) {
+  useFileViewsSync(ORG, CORPUS, true);
+  return children;
+}
+
 describe("UploadPanel", () => {
   it("shows the limits and the personal-data caution, sends the chosen files, then each file's result as it settles", async () => {
     let polls = 0;
@@ -83,7 +91,11 @@ describe("UploadPanel", () => {
       }),
       http.get(`${base}/uploads/u2`, () => HttpResponse.json(result("u2", [file("f0", "third.txt", "ready", { documentsCreated: 1 })]))),
     );
-    renderWithProviders(<UploadPanel orgId={ORG} corpusId={CORPUS} />);
+    renderWithProviders(
+      <WithClock>
+        <UploadPanel orgId={ORG} corpusId={CORPUS} />
+      </WithClock>,
+    );
     expect(await screen.findByTestId("upload-limits")).toHaveTextContent("Up to 1 KB per file, 2 files or 4 KB per request");
     expect(screen.getByText(/Documents may hold personal data/)).toBeInTheDocument();
 
