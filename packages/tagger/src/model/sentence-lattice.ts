@@ -7,6 +7,7 @@ import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
+import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
 
 /**
  * The tagging path's first-order lattice of one sentence, built from per-model caches instead of
@@ -67,12 +68,11 @@ export type SentenceLattice = {
 
 type Cache = {
   K: number;
-  words: Map<string, number>;
-  firstWords: Map<string, number>;
+  /** (word, sentence-initial) → entry. */
+  words: WordTable;
   wordSymbol: Int32Array;
   wordLog: Float64Array;
   wordExp: Float64Array;
-  wordCount: number;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
@@ -240,12 +240,10 @@ function createCache(model: TaggerModel): Cache {
   }
   return {
     K,
-    words: new Map(),
-    firstWords: new Map(),
+    words: createWordTable(),
     wordSymbol: new Int32Array(1024),
     wordLog: new Float64Array(1024 * K),
     wordExp: new Float64Array(1024 * K),
-    wordCount: 0,
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
     previousLog: new Float64Array(128 * KK),
@@ -289,16 +287,11 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
 
 /** Entry number of a word type at a sentence position, filling it on first sight. */
 function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
-  const map = first ? cache.firstWords : cache.words;
-  const found = map.get(word);
-  if (found !== undefined) return found;
-  if (cache.wordCount >= MAX_WORD_ENTRIES) {
-    cache.words.clear();
-    cache.firstWords.clear();
-    cache.wordCount = 0;
-  }
+  const found = findWord(cache.words, word, first);
+  if (found >= 0) return found;
+  if (cache.words.size >= MAX_WORD_ENTRIES) clearWords(cache.words);
   const K = cache.K;
-  const entry = cache.wordCount++;
+  const entry = insertWord(cache.words, word, first);
   cache.wordSymbol = grow(cache.wordSymbol, entry + 1);
   cache.wordLog = grow(cache.wordLog, (entry + 1) * K);
   cache.wordExp = grow(cache.wordExp, (entry + 1) * K);
@@ -314,7 +307,6 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     addSuffixLogRatio(cache.suffix, word, group, cache.wordLog, out);
   }
   for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
-  map.set(word, entry);
   return entry;
 }
 

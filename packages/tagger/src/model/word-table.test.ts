@@ -1,0 +1,42 @@
+import { describe, expect, it } from "vitest";
+import { createRng } from "../util/random";
+import { clearWords, createWordTable, findWord, insertWord } from "./word-table";
+
+// Reference: a JavaScript Map per sentence position (what the cache used before), on the same
+// stream of lookups and insertions.
+describe("word table", () => {
+  it("numbers (word, position) pairs as two Maps would, through growth and clearing", () => {
+    const rng = createRng(29);
+    const alphabet = ["a", "b", "Z", "é", "ß", "🙂", "\u0000", "-", "1"];
+    const vocabulary = Array.from({ length: 3000 }, () => Array.from({ length: rng.nextInt(7) }, () => alphabet[rng.nextInt(alphabet.length)]).join(""));
+    const table = createWordTable(4);
+    let reference = [new Map<string, number>(), new Map<string, number>()];
+    for (let step = 0; step < 40000; step++) {
+      if (step === 25000) {
+        clearWords(table);
+        reference = [new Map(), new Map()];
+      }
+      // Fresh string objects, as a tokenizer gives: equal text, different identity.
+      const word = vocabulary[rng.nextInt(vocabulary.length)].split("").join("");
+      const first = rng.next() < 0.3;
+      const map = reference[first ? 1 : 0];
+      const expected = map.get(word);
+      const found = findWord(table, word, first);
+      expect(found, `step ${step} ${JSON.stringify(word)} ${first}`).toBe(expected ?? -1);
+      if (expected === undefined) {
+        const entry = insertWord(table, word, first);
+        expect(entry).toBe(reference[0].size + reference[1].size);
+        map.set(word, entry);
+      }
+    }
+    expect(table.size).toBe(reference[0].size + reference[1].size);
+    // The empty word, and words that differ only in position or in one code unit of a surrogate pair.
+    const small = createWordTable(1);
+    expect(insertWord(small, "", false)).toBe(0);
+    expect(findWord(small, "", true)).toBe(-1);
+    expect(insertWord(small, "\ud83d\ude42", true)).toBe(1);
+    expect(findWord(small, "\ud83d\ude43", true)).toBe(-1);
+    expect(findWord(small, "\ud83d\ude42", true)).toBe(1);
+    expect(findWord(small, "", false)).toBe(0);
+  });
+});

@@ -1,0 +1,100 @@
+/**
+ * A string → entry-number table for the tagging path's per-word-type cache, keyed by (word,
+ * sentence-initial or not): open addressing with linear probing over typed arrays, hashed over
+ * the word's UTF-16 code units (FNV-1a, Fowler–Noll–Vo, from memory; seeded apart for the two
+ * positions, then mixed as in MurmurHash3's finaliser). A slot holds the 32-bit hash, the entry
+ * number with the position flag, and where the word's code units sit in one shared Uint16Array,
+ * so a lookup reads one slot and, when the hashes agree, one run of code units: about two cache
+ * misses for a table of a hundred thousand words, where two JavaScript Maps (one per position)
+ * cost a bucket, an entry, the key pointer and the key string each.
+ * Entries are numbered 0, 1, … in insertion order until {@link clearWords}.
+ */
+export type WordTable = {
+  /**
+   * Power-of-two index of 4-int slots: hash, (entry·2 + position flag) + 1 (0 = empty slot),
+   * offset and length of the word's code units in `units`.
+   */
+  slots: Int32Array;
+  units: Uint16Array;
+  unitCount: number;
+  size: number;
+};
+
+const SLOT = 4;
+
+/** An empty table with room for `capacity` entries before it grows. */
+export function createWordTable(capacity = 1024): WordTable {
+  let slots = 16;
+  while (slots < 2 * capacity) slots *= 2;
+  return { slots: new Int32Array(SLOT * slots), units: new Uint16Array(8 * capacity), unitCount: 0, size: 0 };
+}
+
+function hashWord(word: string, first: boolean): number {
+  let h = first ? 0x2f6b8c1d : 0x811c9dc5;
+  for (let x = 0; x < word.length; x++) h = Math.imul(h ^ word.charCodeAt(x), 0x01000193);
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  return h ^ (h >>> 16);
+}
+
+/** Entry number of (word, first), or −1. */
+export function findWord(table: WordTable, word: string, first: boolean): number {
+  const h = hashWord(word, first);
+  const { slots, units } = table;
+  const mask = slots.length / SLOT - 1;
+  const flag = first ? 1 : 0;
+  const n = word.length;
+  for (let i = h & mask; ; i = (i + 1) & mask) {
+    const s = SLOT * i;
+    const tag = slots[s + 1];
+    if (tag === 0) return -1;
+    if (slots[s] !== h || ((tag - 1) & 1) !== flag || slots[s + 3] !== n) continue;
+    const at = slots[s + 2];
+    let x = 0;
+    while (x < n && units[at + x] === word.charCodeAt(x)) x++;
+    if (x === n) return (tag - 1) >> 1;
+  }
+}
+
+function place(slots: Int32Array, h: number, tag: number, at: number, n: number): void {
+  const mask = slots.length / SLOT - 1;
+  let i = h & mask;
+  while (slots[SLOT * i + 1] !== 0) i = (i + 1) & mask;
+  const s = SLOT * i;
+  slots[s] = h;
+  slots[s + 1] = tag;
+  slots[s + 2] = at;
+  slots[s + 3] = n;
+}
+
+/** Adds (word, first), which must not be in the table yet; returns its entry number. */
+export function insertWord(table: WordTable, word: string, first: boolean): number {
+  const h = hashWord(word, first);
+  const entry = table.size++;
+  const n = word.length;
+  const at = table.unitCount;
+  if (at + n > table.units.length) {
+    const units = new Uint16Array(Math.max(at + n, 2 * table.units.length));
+    units.set(table.units.subarray(0, at));
+    table.units = units;
+  }
+  for (let x = 0; x < n; x++) table.units[at + x] = word.charCodeAt(x);
+  table.unitCount = at + n;
+  if (2 * SLOT * table.size > table.slots.length) {
+    const old = table.slots;
+    const slots = new Int32Array(2 * old.length);
+    for (let s = 0; s < old.length; s += SLOT) if (old[s + 1] !== 0) place(slots, old[s], old[s + 1], old[s + 2], old[s + 3]);
+    table.slots = slots;
+  }
+  place(table.slots, h, 2 * entry + (first ? 1 : 0) + 1, at, n);
+  return entry;
+}
+
+/** Removes every entry (numbering starts again at 0); keeps the allocated arrays. */
+export function clearWords(table: WordTable): void {
+  table.slots.fill(0);
+  table.unitCount = 0;
+  table.size = 0;
+}
