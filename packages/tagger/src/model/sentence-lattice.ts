@@ -36,6 +36,14 @@ const MAX_WORD_ENTRIES = 1 << 17;
  */
 const MAX_PREVIOUS_NUMBERS = 1 << 22;
 const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PREVIOUS_NUMBERS / (K * K)));
+/**
+ * Patched step matrices, one per (previous symbol, symbol) pair whose word overrides cells, are
+ * kept in a pool bounded by its size (K² numbers each, two arrays), which starts afresh when full;
+ * the pairs seen without overrides are remembered too, up to POOL_PAIRS of them.
+ */
+const MAX_POOL_NUMBERS = 1 << 21;
+const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
+const POOL_PAIRS = 1 << 18;
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {
@@ -78,12 +86,20 @@ type Cache = {
   previousBase: Float64Array;
   /**
    * The same with the context-free context-emission ratio added, and its exp: matrices
-   * 0..patches−1 are the per-sentence patch area (step t patched into matrix t), slot s is
-   * matrix patches + s.
+   * 1..patches−1 are the pool of patched matrices (matrix 0 holds the plain transitions of models
+   * without previous-word or context tables), slot s is matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
   patches: number;
+  /**
+   * (previous symbol·S + symbol) → the pool matrix of that step, or 0 when the pair overrides no
+   * cell (the previous symbol's slot matrix serves); poolCount is the next free pool matrix.
+   */
+  pool: CountTable;
+  poolCount: number;
+  /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
+  pairSymbols: Uint8Array;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
@@ -159,6 +175,7 @@ function createCache(model: TaggerModel): Cache {
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
+  const pairSymbols = new Uint8Array(S);
   const table = parameters.contextEmission;
   if (table !== null && model.segmentStarts !== null) {
     // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
@@ -211,6 +228,7 @@ function createCache(model: TaggerModel): Cache {
       const row = (key - symbol) / S;
       const context = Math.floor(row / K);
       if (context > K) {
+        pairSymbols[symbol] = 1;
         const pair = (context - K - 1) * S + symbol;
         const found = findEntry(pairIndex, pair);
         if (found < 0) {
@@ -249,6 +267,9 @@ function createCache(model: TaggerModel): Cache {
     previousLog: new Float64Array(128 * KK),
     previousExp: new Float64Array(128 * KK),
     patches: 64,
+    pool: createCountTable(),
+    poolCount: 1,
+    pairSymbols,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
     previousCount: 0,
@@ -371,7 +392,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   return entry;
 }
 
-/** Makes the patch area hold `length` matrices, moving the slots behind it. */
+/** Makes the pool hold `length` matrices, keeping its matrices and moving the slots behind it. */
 function reservePatches(cache: Cache, length: number): void {
   if (cache.patches >= length) return;
   const KK = cache.K * cache.K;
@@ -379,6 +400,8 @@ function reservePatches(cache: Cache, length: number): void {
   const size = (patches + Math.max(cache.previousCount, 64)) * KK;
   const log = new Float64Array(size);
   const exp = new Float64Array(size);
+  log.set(cache.previousLog.subarray(0, cache.poolCount * KK));
+  exp.set(cache.previousExp.subarray(0, cache.poolCount * KK));
   log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   cache.previousLog = log;
@@ -433,8 +456,14 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
   if (T < 2) return lattice;
-  reservePatches(cache, T);
-  // Start afresh between sentences only: the steps of this one point into the slots.
+  // Start afresh between sentences only: the steps of this one point into the slots and the pool,
+  // which gains at most T − 1 matrices.
+  if (cache.poolCount + T > cache.patches && cache.patches < poolLimit(K)) reservePatches(cache, cache.poolCount + T);
+  if (cache.poolCount + T > cache.patches || cache.pool.size + T > POOL_PAIRS) {
+    cache.pool = createCountTable();
+    cache.poolCount = 1;
+    reservePatches(cache, T + 1);
+  }
   if (cache.previousCount + T > previousLimit(K)) {
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
@@ -462,17 +491,31 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const last = offsets[symbol + 1];
     // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
     const hasSegmentCells = first < last && cells[first] < KK;
-    const group = cache.previousAnyRow[slot] === 0 ? -1 : findEntry(cache.pairIndex!, previous * S + symbol);
-    if (!hasSegmentCells && group < 0) continue;
-    // This word overrides cells: patch a copy of the slot's matrix into patch matrix t.
+    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
+    if (!hasSegmentCells && !maybePair) continue;
+    const key = previous * S + symbol;
+    const pooled = findEntry(cache.pool, key);
+    if (pooled >= 0) {
+      const m = cache.pool.values[pooled];
+      if (m > 0) stepIndex[t] = m;
+      continue;
+    }
+    const group = maybePair ? findEntry(cache.pairIndex!, key) : -1;
+    if (!hasSegmentCells && group < 0) {
+      addCount(cache.pool, key, 0);
+      continue;
+    }
+    // This word overrides cells: patch a copy of the slot's matrix into a new pool matrix.
+    const patched = cache.poolCount++;
+    addCount(cache.pool, key, patched);
     const logs = cache.previousLog;
     const exps = cache.previousExp;
-    const out = t * KK;
+    const out = patched * KK;
     const src = matrix * KK;
     // Native block copies (memmove), not K² element loads and stores.
     logs.copyWithin(out, src, src + KK);
     exps.copyWithin(out, src, src + KK);
-    stepIndex[t] = t;
+    stepIndex[t] = patched;
     const base = cache.previousBase;
     const from = slot * KK;
     // Segment-start cells where this word was seen after state i (exact ratio precomputed).
