@@ -7,6 +7,7 @@ import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
+import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
 import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
 
 /**
@@ -78,9 +79,11 @@ type Cache = {
   K: number;
   /** (word, sentence-initial) → entry. */
   words: WordTable;
-  wordSymbol: Int32Array;
-  wordLog: Float64Array;
-  wordExp: Float64Array;
+  /**
+   * Per entry, 2K + 1 numbers side by side (one or two cache lines for a token):
+   * its symbol, its K emission log scores, their K exps.
+   */
+  wordRows: Float64Array;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
@@ -93,10 +96,10 @@ type Cache = {
   previousExp: Float64Array;
   patches: number;
   /**
-   * (previous symbol·S + symbol) → the pool matrix of that step, or 0 when the pair overrides no
+   * (previous symbol, symbol) → the pool matrix of that step, or 0 when the pair overrides no
    * cell (the previous symbol's slot matrix serves); poolCount is the next free pool matrix.
    */
-  pool: CountTable;
+  pool: PairTable;
   poolCount: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
   pairSymbols: Uint8Array;
@@ -259,15 +262,13 @@ function createCache(model: TaggerModel): Cache {
   return {
     K,
     words: createWordTable(),
-    wordSymbol: new Int32Array(1024),
-    wordLog: new Float64Array(1024 * K),
-    wordExp: new Float64Array(1024 * K),
+    wordRows: new Float64Array(1024 * (2 * K + 1)),
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
     previousLog: new Float64Array(128 * KK),
     previousExp: new Float64Array(128 * KK),
     patches: 64,
-    pool: createCountTable(),
+    pool: createPairTable(),
     poolCount: 1,
     pairSymbols,
     previousHasRow: new Uint8Array(64 * K),
@@ -312,22 +313,21 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   if (found >= 0) return found;
   if (cache.words.size >= MAX_WORD_ENTRIES) clearWords(cache.words);
   const K = cache.K;
+  const W = 2 * K + 1;
   const entry = insertWord(cache.words, word, first);
-  cache.wordSymbol = grow(cache.wordSymbol, entry + 1);
-  cache.wordLog = grow(cache.wordLog, (entry + 1) * K);
-  cache.wordExp = grow(cache.wordExp, (entry + 1) * K);
+  cache.wordRows = grow(cache.wordRows, (entry + 1) * W);
   const symbol = symbolOf(model.vocabulary, word, first);
-  cache.wordSymbol[entry] = symbol;
+  cache.wordRows[entry * W] = symbol;
   const { emissions } = model.parameters;
-  const out = entry * K;
-  for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
+  const out = entry * W + 1;
+  for (let k = 0; k < K; k++) cache.wordRows[out + k] = emissions[symbol * K + k];
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    addSuffixLogRatio(cache.suffix, word, group, cache.wordLog, out);
+    addSuffixLogRatio(cache.suffix, word, group, cache.wordRows, out);
   }
-  for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
+  for (let k = 0; k < K; k++) cache.wordRows[out + K + k] = Math.exp(cache.wordRows[out + k]);
   return entry;
 }
 
@@ -428,12 +428,12 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const { symbols, logEmissions, emissions, logStart, start } = lattice;
   for (let t = 0; t < T; t++) {
     const entry = wordEntry(model, cache, words[t], t === 0);
-    symbols[t] = cache.wordSymbol[entry];
-    const wordLog = cache.wordLog;
-    const wordExp = cache.wordExp;
-    for (let k = 0, from = entry * K, to = t * K; k < K; k++) {
-      logEmissions[to + k] = wordLog[from + k];
-      emissions[to + k] = wordExp[from + k];
+    const rows = cache.wordRows;
+    const at = entry * (2 * K + 1);
+    symbols[t] = rows[at];
+    for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
+      logEmissions[to + k] = rows[from + k];
+      emissions[to + k] = rows[from + K + k];
     }
   }
   const { parameters } = model;
@@ -460,7 +460,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   // which gains at most T − 1 matrices.
   if (cache.poolCount + T > cache.patches && cache.patches < poolLimit(K)) reservePatches(cache, cache.poolCount + T);
   if (cache.poolCount + T > cache.patches || cache.pool.size + T > POOL_PAIRS) {
-    cache.pool = createCountTable();
+    clearPairs(cache.pool);
     cache.poolCount = 1;
     reservePatches(cache, T + 1);
   }
@@ -493,21 +493,19 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const hasSegmentCells = first < last && cells[first] < KK;
     const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
     if (!hasSegmentCells && !maybePair) continue;
-    const key = previous * S + symbol;
-    const pooled = findEntry(cache.pool, key);
+    const pooled = getPair(cache.pool, previous, symbol, -1);
     if (pooled >= 0) {
-      const m = cache.pool.values[pooled];
-      if (m > 0) stepIndex[t] = m;
+      if (pooled > 0) stepIndex[t] = pooled;
       continue;
     }
-    const group = maybePair ? findEntry(cache.pairIndex!, key) : -1;
+    const group = maybePair ? findEntry(cache.pairIndex!, previous * S + symbol) : -1;
     if (!hasSegmentCells && group < 0) {
-      addCount(cache.pool, key, 0);
+      setPair(cache.pool, previous, symbol, 0);
       continue;
     }
     // This word overrides cells: patch a copy of the slot's matrix into a new pool matrix.
     const patched = cache.poolCount++;
-    addCount(cache.pool, key, patched);
+    setPair(cache.pool, previous, symbol, patched);
     const logs = cache.previousLog;
     const exps = cache.previousExp;
     const out = patched * KK;

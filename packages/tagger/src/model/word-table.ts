@@ -2,17 +2,18 @@
  * A string → entry-number table for the tagging path's per-word-type cache, keyed by (word,
  * sentence-initial or not): open addressing with linear probing over typed arrays, hashed over
  * the word's UTF-16 code units (FNV-1a, Fowler–Noll–Vo, from memory; seeded apart for the two
- * positions, then mixed as in MurmurHash3's finaliser). A slot holds the 32-bit hash, the entry
- * number with the position flag, and where the word's code units sit in one shared Uint16Array,
- * so a lookup reads one slot and, when the hashes agree, one run of code units: about two cache
- * misses for a table of a hundred thousand words, where two JavaScript Maps (one per position)
- * cost a bucket, an entry, the key pointer and the key string each.
+ * positions, then mixed as in MurmurHash3's finaliser). A slot of 32 bytes holds the 32-bit hash,
+ * the entry number with the position flag, the length and, for words of up to INLINE_UNITS code
+ * units, the code units themselves (longer words keep theirs in one shared Uint16Array), so a
+ * lookup of a short word reads one cache line; two JavaScript Maps (one per position) cost a
+ * bucket, an entry, the key pointer and the key string each.
  * Entries are numbered 0, 1, … in insertion order until {@link clearWords}.
  */
 export type WordTable = {
   /**
-   * Power-of-two index of 4-int slots: hash, (entry·2 + position flag) + 1 (0 = empty slot),
-   * offset and length of the word's code units in `units`.
+   * Power-of-two index of 8-int slots: hash, (entry·2 + position flag) + 1 (0 = empty slot),
+   * length, then the code units two per int (low half first), or for a longer word the offset of
+   * its code units in `units`.
    */
   slots: Int32Array;
   units: Uint16Array;
@@ -20,16 +21,19 @@ export type WordTable = {
   size: number;
 };
 
-const SLOT = 4;
+const SLOT = 8;
+/** Words of up to this many UTF-16 code units are stored in their slot. */
+const INLINE_UNITS = 10;
 
 /** An empty table with room for `capacity` entries before it grows. */
 export function createWordTable(capacity = 1024): WordTable {
   let slots = 16;
   while (slots < 2 * capacity) slots *= 2;
-  return { slots: new Int32Array(SLOT * slots), units: new Uint16Array(8 * capacity), unitCount: 0, size: 0 };
+  return { slots: new Int32Array(SLOT * slots), units: new Uint16Array(capacity), unitCount: 0, size: 0 };
 }
 
-function hashWord(word: string, first: boolean): number {
+/** The 32-bit hash of (word, first) (exported for tests). */
+export function hashWord(word: string, first: boolean): number {
   let h = first ? 0x2f6b8c1d : 0x811c9dc5;
   for (let x = 0; x < word.length; x++) h = Math.imul(h ^ word.charCodeAt(x), 0x01000193);
   h ^= h >>> 16;
@@ -42,7 +46,7 @@ function hashWord(word: string, first: boolean): number {
 /** Entry number of (word, first), or −1. */
 export function findWord(table: WordTable, word: string, first: boolean): number {
   const h = hashWord(word, first);
-  const { slots, units } = table;
+  const { slots } = table;
   const mask = slots.length / SLOT - 1;
   const flag = first ? 1 : 0;
   const n = word.length;
@@ -50,23 +54,25 @@ export function findWord(table: WordTable, word: string, first: boolean): number
     const s = SLOT * i;
     const tag = slots[s + 1];
     if (tag === 0) return -1;
-    if (slots[s] !== h || ((tag - 1) & 1) !== flag || slots[s + 3] !== n) continue;
-    const at = slots[s + 2];
+    if (slots[s] !== h || ((tag - 1) & 1) !== flag || slots[s + 2] !== n) continue;
     let x = 0;
-    while (x < n && units[at + x] === word.charCodeAt(x)) x++;
+    if (n <= INLINE_UNITS) {
+      while (x < n && ((slots[s + 3 + (x >> 1)] >>> ((x & 1) << 4)) & 0xffff) === word.charCodeAt(x)) x++;
+    } else {
+      const units = table.units;
+      const at = slots[s + 3];
+      while (x < n && units[at + x] === word.charCodeAt(x)) x++;
+    }
     if (x === n) return (tag - 1) >> 1;
   }
 }
 
-function place(slots: Int32Array, h: number, tag: number, at: number, n: number): void {
+/** The slot where a key with hash h goes (the first empty one on its probe sequence). */
+function freeSlot(slots: Int32Array, h: number): number {
   const mask = slots.length / SLOT - 1;
   let i = h & mask;
   while (slots[SLOT * i + 1] !== 0) i = (i + 1) & mask;
-  const s = SLOT * i;
-  slots[s] = h;
-  slots[s + 1] = tag;
-  slots[s + 2] = at;
-  slots[s + 3] = n;
+  return SLOT * i;
 }
 
 /** Adds (word, first), which must not be in the table yet; returns its entry number. */
@@ -74,21 +80,31 @@ export function insertWord(table: WordTable, word: string, first: boolean): numb
   const h = hashWord(word, first);
   const entry = table.size++;
   const n = word.length;
-  const at = table.unitCount;
-  if (at + n > table.units.length) {
-    const units = new Uint16Array(Math.max(at + n, 2 * table.units.length));
-    units.set(table.units.subarray(0, at));
-    table.units = units;
-  }
-  for (let x = 0; x < n; x++) table.units[at + x] = word.charCodeAt(x);
-  table.unitCount = at + n;
   if (2 * SLOT * table.size > table.slots.length) {
     const old = table.slots;
     const slots = new Int32Array(2 * old.length);
-    for (let s = 0; s < old.length; s += SLOT) if (old[s + 1] !== 0) place(slots, old[s], old[s + 1], old[s + 2], old[s + 3]);
+    for (let s = 0; s < old.length; s += SLOT) if (old[s + 1] !== 0) slots.set(old.subarray(s, s + SLOT), freeSlot(slots, old[s]));
     table.slots = slots;
   }
-  place(table.slots, h, 2 * entry + (first ? 1 : 0) + 1, at, n);
+  const slots = table.slots;
+  const s = freeSlot(slots, h);
+  slots[s] = h;
+  slots[s + 1] = 2 * entry + (first ? 1 : 0) + 1;
+  slots[s + 2] = n;
+  if (n <= INLINE_UNITS) {
+    for (let x = 3; x < SLOT; x++) slots[s + x] = 0;
+    for (let x = 0; x < n; x++) slots[s + 3 + (x >> 1)] |= word.charCodeAt(x) << ((x & 1) << 4);
+  } else {
+    const at = table.unitCount;
+    if (at + n > table.units.length) {
+      const units = new Uint16Array(Math.max(at + n, 2 * table.units.length));
+      units.set(table.units.subarray(0, at));
+      table.units = units;
+    }
+    for (let x = 0; x < n; x++) table.units[at + x] = word.charCodeAt(x);
+    table.unitCount = at + n;
+    slots[s + 3] = at;
+  }
   return entry;
 }
 
