@@ -5,7 +5,7 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
-import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
+import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
 import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
@@ -28,7 +28,7 @@ import { clearWords, createWordTable, findWord, insertWord, type WordTable } fro
  * ({@link fastLatticeApplies}); the others keep the general builder.
  */
 
-/** Most cached word types and previous-symbol matrices before a cache starts afresh (bounds memory). */
+/** Most cached word types (and emission rows) before the word cache starts afresh (bounds memory). */
 const MAX_WORD_ENTRIES = 1 << 17;
 /**
  * Previous-symbol matrices are bounded by their total size (K² numbers each, three arrays), so a
@@ -77,13 +77,20 @@ export type SentenceLattice = {
 
 type Cache = {
   K: number;
-  /** (word, sentence-initial) → entry. */
+  /** (word, sentence-initial) → emission row. */
   words: WordTable;
   /**
-   * Per entry, 2K + 1 numbers side by side (one or two cache lines for a token):
-   * its symbol, its K emission log scores, their K exps.
+   * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
+   * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
+   * A symbol's own row serves every word read as that symbol without a suffix ratio; the others
+   * have one row per (symbol, suffix row of the trie).
    */
   wordRows: Float64Array;
+  rowCount: number;
+  /** Row of each symbol's plain scores, or −1. */
+  symbolRows: Int32Array;
+  /** (symbol, suffix row) → emission row. */
+  suffixRows: PairTable;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
@@ -263,6 +270,9 @@ function createCache(model: TaggerModel): Cache {
     K,
     words: createWordTable(),
     wordRows: new Float64Array(1024 * (2 * K + 1)),
+    rowCount: 0,
+    symbolRows: new Int32Array(S).fill(-1),
+    suffixRows: createPairTable(),
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
     previousLog: new Float64Array(128 * KK),
@@ -307,28 +317,48 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
   return next;
 }
 
-/** Entry number of a word type at a sentence position, filling it on first sight. */
+/**
+ * Emission row of a word type at a sentence position, filling it on first sight: the word's
+ * symbol and its scores (the table row, plus the suffix log-ratio for unknown words), log and exp.
+ */
 function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
   const found = findWord(cache.words, word, first);
   if (found >= 0) return found;
-  if (cache.words.size >= MAX_WORD_ENTRIES) clearWords(cache.words);
+  // Earlier tokens of the sentence have copied their rows already, so starting afresh is safe.
+  if (cache.words.size >= MAX_WORD_ENTRIES || cache.rowCount >= MAX_WORD_ENTRIES) {
+    clearWords(cache.words);
+    cache.rowCount = 0;
+    cache.symbolRows.fill(-1);
+    clearPairs(cache.suffixRows);
+  }
   const K = cache.K;
-  const W = 2 * K + 1;
-  const entry = insertWord(cache.words, word, first);
-  cache.wordRows = grow(cache.wordRows, (entry + 1) * W);
   const symbol = symbolOf(model.vocabulary, word, first);
-  cache.wordRows[entry * W] = symbol;
-  const { emissions } = model.parameters;
-  const out = entry * W + 1;
-  for (let k = 0; k < K; k++) cache.wordRows[out + k] = emissions[symbol * K + k];
+  let suffix = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    addSuffixLogRatio(cache.suffix, word, group, cache.wordRows, out);
+    suffix = suffixRatioRow(cache.suffix, word, group);
   }
-  for (let k = 0; k < K; k++) cache.wordRows[out + K + k] = Math.exp(cache.wordRows[out + k]);
-  return entry;
+  let row = suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
+  if (row < 0) {
+    const W = 2 * K + 1;
+    row = cache.rowCount++;
+    cache.wordRows = grow(cache.wordRows, (row + 1) * W);
+    const rows = cache.wordRows;
+    rows[row * W] = symbol;
+    const { emissions } = model.parameters;
+    const out = row * W + 1;
+    for (let k = 0; k < K; k++) rows[out + k] = emissions[symbol * K + k];
+    if (suffix >= 0) {
+      const ratios = cache.suffix!.rows;
+      for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
+      setPair(cache.suffixRows, symbol, suffix, row);
+    } else cache.symbolRows[symbol] = row;
+    for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
+  }
+  insertWord(cache.words, word, first, row);
+  return row;
 }
 
 /** Slot of the K×K step matrix after previous symbol `previous` (context-free parts folded in). */

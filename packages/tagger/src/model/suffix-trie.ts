@@ -146,17 +146,19 @@ function newRow(trie: SuffixTrie): number {
 }
 
 /**
- * Adds log(P(t | group, longest known suffix of word) / P̂(t | group)) to out[at..at+K): the
- * numbers suffixLogRatio(trie.stats, word, group, …) computes, by the same operations in the same
- * order, with each suffix's abstraction P(t | suffix) memoised at its node.
+ * The memoised row of the longest known suffix of a word in a group: its K log ratios
+ * log(P(t | group, suffix) / P̂(t | group)) are trie.rows[2K·row + K ..+K), the numbers
+ * suffixLogRatio(trie.stats, word, group, …) computes, by the same operations in the same order.
+ * −1 when suffixLogRatio gives zeros without computing (no statistics for the group); words
+ * with the same row get the same numbers.
  */
-export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number, out: Float64Array, at: number): void {
+export function suffixRatioRow(trie: SuffixTrie, word: string, group: number): number {
   const { stats, statNode } = trie;
-  if (!(group >= 0 && group < trie.roots.length)) return;
+  if (!(group >= 0 && group < trie.roots.length)) return -1;
   const root = trie.roots[group];
-  if (root < 0) return;
+  if (root < 0) return -1;
   const rootStat = statNode[root];
-  if (rootStat < 0 || stats.totals[rootStat] <= 0) return;
+  if (rootStat < 0 || stats.totals[rootStat] <= 0) return -1;
   const K = stats.states;
   const { offsets, tags, counts, totals, theta } = stats;
   let row = trie.rootRows[group];
@@ -215,5 +217,14 @@ export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number,
       rows[r + K + k] = base > 0 ? Math.log(rows[r + k] / base) : 0;
     }
   }
-  for (let k = 0; k < K; k++) out[at + k] += rows[r + K + k];
+  return row;
+}
+
+/** Adds the log ratios of {@link suffixRatioRow} to out[at..at+K) (nothing for −1). */
+export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number, out: Float64Array, at: number): void {
+  const row = suffixRatioRow(trie, word, group);
+  if (row < 0) return;
+  const K = trie.stats.states;
+  const rows = trie.rows;
+  for (let k = 0, from = 2 * K * row + K; k < K; k++) out[at + k] += rows[from + k];
 }

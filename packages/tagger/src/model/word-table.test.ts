@@ -5,7 +5,7 @@ import { clearWords, createWordTable, findWord, hashWord, insertWord } from "./w
 // Reference: a JavaScript Map per sentence position (what the cache used before), on the same
 // stream of lookups and insertions.
 describe("word table", () => {
-  it("numbers (word, position) pairs as two Maps would, through growth and clearing", () => {
+  it("maps (word, position) pairs to values as two Maps would, through growth and clearing", () => {
     const rng = createRng(29);
     const alphabet = ["a", "b", "Z", "é", "ß", "🙂", "\u0000", "-", "1"];
     const vocabulary = Array.from({ length: 3000 }, () => Array.from({ length: rng.nextInt(16) }, () => alphabet[rng.nextInt(alphabet.length)]).join(""));
@@ -24,27 +24,28 @@ describe("word table", () => {
       const found = findWord(table, word, first);
       expect(found, `step ${step} ${JSON.stringify(word)} ${first}`).toBe(expected ?? -1);
       if (expected === undefined) {
-        const entry = insertWord(table, word, first);
-        expect(entry).toBe(reference[0].size + reference[1].size);
-        map.set(word, entry);
+        const value = rng.nextInt(2 ** 30);
+        insertWord(table, word, first, value);
+        map.set(word, value);
       }
     }
     expect(table.size).toBe(reference[0].size + reference[1].size);
     // The empty word, words that differ only in position or in one code unit of a surrogate pair,
     // and words just within and just beyond what a slot holds inline (10 code units).
     const small = createWordTable(1);
-    expect(insertWord(small, "", false)).toBe(0);
+    insertWord(small, "", false, 0);
     expect(findWord(small, "", true)).toBe(-1);
-    expect(insertWord(small, "\ud83d\ude42", true)).toBe(1);
+    insertWord(small, "\ud83d\ude42", true, 1);
     expect(findWord(small, "\ud83d\ude43", true)).toBe(-1);
     expect(findWord(small, "\ud83d\ude42", true)).toBe(1);
     expect(findWord(small, "", false)).toBe(0);
-    expect(insertWord(small, "abcdefghij", false)).toBe(2);
-    expect(insertWord(small, "abcdefghijk", false)).toBe(3);
+    insertWord(small, "abcdefghij", false, 2);
+    insertWord(small, "abcdefghijk", false, 2 ** 30 - 1);
     expect(findWord(small, "abcdefghiJ", false)).toBe(-1);
     expect(findWord(small, "abcdefghijK", false)).toBe(-1);
     expect(findWord(small, "abcdefghij", false)).toBe(2);
-    expect(findWord(small, "abcdefghijk", false)).toBe(3);
+    expect(findWord(small, "abcdefghijk", false)).toBe(2 ** 30 - 1);
+    expect(() => insertWord(small, "x", false, 2 ** 30)).toThrow(RangeError);
   });
 
   it("tells apart different words with the same 32-bit hash, stored inline and in the shared code units", () => {
@@ -63,9 +64,9 @@ describe("word table", () => {
       expect(pair, `a hash collision among words of length ${length}`).not.toBeNull();
       const [a, b] = pair!;
       const table = createWordTable(2);
-      expect(insertWord(table, a, false)).toBe(0);
+      insertWord(table, a, false, 0);
       expect(findWord(table, b, false)).toBe(-1);
-      expect(insertWord(table, b, false)).toBe(1);
+      insertWord(table, b, false, 1);
       expect(findWord(table, a, false)).toBe(0);
       expect(findWord(table, b, false)).toBe(1);
     }

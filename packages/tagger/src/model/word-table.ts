@@ -1,23 +1,23 @@
 /**
- * A string → entry-number table for the tagging path's per-word-type cache, keyed by (word,
- * sentence-initial or not): open addressing with linear probing over typed arrays, hashed over
+ * A table from (word, sentence-initial or not) to a non-negative number below 2^30, for the
+ * tagging path's per-word-type cache: open addressing with linear probing over typed arrays, hashed over
  * the word's UTF-16 code units (FNV-1a, Fowler–Noll–Vo, from memory; seeded apart for the two
  * positions, then mixed as in MurmurHash3's finaliser). A slot of 32 bytes holds the 32-bit hash,
- * the entry number with the position flag, the length and, for words of up to INLINE_UNITS code
+ * the value with the position flag, the length and, for words of up to INLINE_UNITS code
  * units, the code units themselves (longer words keep theirs in one shared Uint16Array), so a
  * lookup of a short word reads one cache line; two JavaScript Maps (one per position) cost a
  * bucket, an entry, the key pointer and the key string each.
- * Entries are numbered 0, 1, … in insertion order until {@link clearWords}.
  */
 export type WordTable = {
   /**
-   * Power-of-two index of 8-int slots: hash, (entry·2 + position flag) + 1 (0 = empty slot),
+   * Power-of-two index of 8-int slots: hash, (value·2 + position flag) + 1 (0 = empty slot),
    * length, then the code units two per int (low half first), or for a longer word the offset of
    * its code units in `units`.
    */
   slots: Int32Array;
   units: Uint16Array;
   unitCount: number;
+  /** Number of words stored. */
   size: number;
 };
 
@@ -43,7 +43,7 @@ export function hashWord(word: string, first: boolean): number {
   return h ^ (h >>> 16);
 }
 
-/** Entry number of (word, first), or −1. */
+/** The value stored for (word, first), or −1. */
 export function findWord(table: WordTable, word: string, first: boolean): number {
   const h = hashWord(word, first);
   const { slots } = table;
@@ -75,10 +75,11 @@ function freeSlot(slots: Int32Array, h: number): number {
   return SLOT * i;
 }
 
-/** Adds (word, first), which must not be in the table yet; returns its entry number. */
-export function insertWord(table: WordTable, word: string, first: boolean): number {
+/** Adds (word, first), which must not be in the table yet, with `value` (an integer in 0..2^30−1). */
+export function insertWord(table: WordTable, word: string, first: boolean, value: number): void {
+  if (!(Number.isInteger(value) && value >= 0 && value < 2 ** 30)) throw new RangeError(`word table: value ${value} is not an integer in [0, 2^30)`);
   const h = hashWord(word, first);
-  const entry = table.size++;
+  table.size++;
   const n = word.length;
   if (2 * SLOT * table.size > table.slots.length) {
     const old = table.slots;
@@ -89,7 +90,7 @@ export function insertWord(table: WordTable, word: string, first: boolean): numb
   const slots = table.slots;
   const s = freeSlot(slots, h);
   slots[s] = h;
-  slots[s + 1] = 2 * entry + (first ? 1 : 0) + 1;
+  slots[s + 1] = 2 * value + (first ? 1 : 0) + 1;
   slots[s + 2] = n;
   if (n <= INLINE_UNITS) {
     for (let x = 3; x < SLOT; x++) slots[s + x] = 0;
@@ -105,10 +106,9 @@ export function insertWord(table: WordTable, word: string, first: boolean): numb
     table.unitCount = at + n;
     slots[s + 3] = at;
   }
-  return entry;
 }
 
-/** Removes every entry (numbering starts again at 0); keeps the allocated arrays. */
+/** Removes every word; keeps the allocated arrays. */
 export function clearWords(table: WordTable): void {
   table.slots.fill(0);
   table.unitCount = 0;
