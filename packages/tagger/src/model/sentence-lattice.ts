@@ -5,8 +5,10 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
-import { addSuffixLogRatio, createSuffixTrie, type SuffixTrie } from "./suffix-trie";
+import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
+import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
+import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
 
 /**
  * The tagging path's first-order lattice of one sentence, built from per-model caches instead of
@@ -26,7 +28,7 @@ import type { TaggerModel } from "./tagger-model";
  * ({@link fastLatticeApplies}); the others keep the general builder.
  */
 
-/** Most cached word types and previous-symbol matrices before a cache starts afresh (bounds memory). */
+/** Most cached word types (and emission rows) before the word cache starts afresh (bounds memory). */
 const MAX_WORD_ENTRIES = 1 << 17;
 /**
  * Previous-symbol matrices are bounded by their total size (K² numbers each, three arrays), so a
@@ -35,6 +37,14 @@ const MAX_WORD_ENTRIES = 1 << 17;
  */
 const MAX_PREVIOUS_NUMBERS = 1 << 22;
 const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PREVIOUS_NUMBERS / (K * K)));
+/**
+ * Patched step matrices, one per (previous symbol, symbol) pair whose word overrides cells, are
+ * kept in a pool bounded by its size (K² numbers each, two arrays), which starts afresh when full;
+ * the pairs seen without overrides are remembered too, up to POOL_PAIRS of them.
+ */
+const MAX_POOL_NUMBERS = 1 << 21;
+const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
+const POOL_PAIRS = 1 << 18;
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {
@@ -67,23 +77,39 @@ export type SentenceLattice = {
 
 type Cache = {
   K: number;
-  words: Map<string, number>;
-  firstWords: Map<string, number>;
-  wordSymbol: Int32Array;
-  wordLog: Float64Array;
-  wordExp: Float64Array;
-  wordCount: number;
+  /** (word, sentence-initial) → emission row. */
+  words: WordTable;
+  /**
+   * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
+   * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
+   * A symbol's own row serves every word read as that symbol without a suffix ratio; the others
+   * have one row per (symbol, suffix row of the trie).
+   */
+  wordRows: Float64Array;
+  rowCount: number;
+  /** Row of each symbol's plain scores, or −1. */
+  symbolRows: Int32Array;
+  /** (symbol, suffix row) → emission row. */
+  suffixRows: PairTable;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
   /**
    * The same with the context-free context-emission ratio added, and its exp: matrices
-   * 0..patches−1 are the per-sentence patch area (step t patched into matrix t), slot s is
-   * matrix patches + s.
+   * 1..patches−1 are the pool of patched matrices (matrix 0 holds the plain transitions of models
+   * without previous-word or context tables), slot s is matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
   patches: number;
+  /**
+   * (previous symbol, symbol) → the pool matrix of that step, or 0 when the pair overrides no
+   * cell (the previous symbol's slot matrix serves); poolCount is the next free pool matrix.
+   */
+  pool: PairTable;
+  poolCount: number;
+  /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
+  pairSymbols: Uint8Array;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
@@ -159,6 +185,7 @@ function createCache(model: TaggerModel): Cache {
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
+  const pairSymbols = new Uint8Array(S);
   const table = parameters.contextEmission;
   if (table !== null && model.segmentStarts !== null) {
     // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
@@ -211,6 +238,7 @@ function createCache(model: TaggerModel): Cache {
       const row = (key - symbol) / S;
       const context = Math.floor(row / K);
       if (context > K) {
+        pairSymbols[symbol] = 1;
         const pair = (context - K - 1) * S + symbol;
         const found = findEntry(pairIndex, pair);
         if (found < 0) {
@@ -240,17 +268,19 @@ function createCache(model: TaggerModel): Cache {
   }
   return {
     K,
-    words: new Map(),
-    firstWords: new Map(),
-    wordSymbol: new Int32Array(1024),
-    wordLog: new Float64Array(1024 * K),
-    wordExp: new Float64Array(1024 * K),
-    wordCount: 0,
+    words: createWordTable(),
+    wordRows: new Float64Array(1024 * (2 * K + 1)),
+    rowCount: 0,
+    symbolRows: new Int32Array(S).fill(-1),
+    suffixRows: createPairTable(),
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
     previousLog: new Float64Array(128 * KK),
     previousExp: new Float64Array(128 * KK),
     patches: 64,
+    pool: createPairTable(),
+    poolCount: 1,
+    pairSymbols,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
     previousCount: 0,
@@ -287,35 +317,48 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
   return next;
 }
 
-/** Entry number of a word type at a sentence position, filling it on first sight. */
+/**
+ * Emission row of a word type at a sentence position, filling it on first sight: the word's
+ * symbol and its scores (the table row, plus the suffix log-ratio for unknown words), log and exp.
+ */
 function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
-  const map = first ? cache.firstWords : cache.words;
-  const found = map.get(word);
-  if (found !== undefined) return found;
-  if (cache.wordCount >= MAX_WORD_ENTRIES) {
-    cache.words.clear();
-    cache.firstWords.clear();
-    cache.wordCount = 0;
+  const found = findWord(cache.words, word, first);
+  if (found >= 0) return found;
+  // Earlier tokens of the sentence have copied their rows already, so starting afresh is safe.
+  if (cache.words.size >= MAX_WORD_ENTRIES || cache.rowCount >= MAX_WORD_ENTRIES) {
+    clearWords(cache.words);
+    cache.rowCount = 0;
+    cache.symbolRows.fill(-1);
+    clearPairs(cache.suffixRows);
   }
   const K = cache.K;
-  const entry = cache.wordCount++;
-  cache.wordSymbol = grow(cache.wordSymbol, entry + 1);
-  cache.wordLog = grow(cache.wordLog, (entry + 1) * K);
-  cache.wordExp = grow(cache.wordExp, (entry + 1) * K);
   const symbol = symbolOf(model.vocabulary, word, first);
-  cache.wordSymbol[entry] = symbol;
-  const { emissions } = model.parameters;
-  const out = entry * K;
-  for (let k = 0; k < K; k++) cache.wordLog[out + k] = emissions[symbol * K + k];
+  let suffix = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    addSuffixLogRatio(cache.suffix, word, group, cache.wordLog, out);
+    suffix = suffixRatioRow(cache.suffix, word, group);
   }
-  for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
-  map.set(word, entry);
-  return entry;
+  let row = suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
+  if (row < 0) {
+    const W = 2 * K + 1;
+    row = cache.rowCount++;
+    cache.wordRows = grow(cache.wordRows, (row + 1) * W);
+    const rows = cache.wordRows;
+    rows[row * W] = symbol;
+    const { emissions } = model.parameters;
+    const out = row * W + 1;
+    for (let k = 0; k < K; k++) rows[out + k] = emissions[symbol * K + k];
+    if (suffix >= 0) {
+      const ratios = cache.suffix!.rows;
+      for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
+      setPair(cache.suffixRows, symbol, suffix, row);
+    } else cache.symbolRows[symbol] = row;
+    for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
+  }
+  insertWord(cache.words, word, first, row);
+  return row;
 }
 
 /** Slot of the K×K step matrix after previous symbol `previous` (context-free parts folded in). */
@@ -379,7 +422,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   return entry;
 }
 
-/** Makes the patch area hold `length` matrices, moving the slots behind it. */
+/** Makes the pool hold `length` matrices, keeping its matrices and moving the slots behind it. */
 function reservePatches(cache: Cache, length: number): void {
   if (cache.patches >= length) return;
   const KK = cache.K * cache.K;
@@ -387,6 +430,8 @@ function reservePatches(cache: Cache, length: number): void {
   const size = (patches + Math.max(cache.previousCount, 64)) * KK;
   const log = new Float64Array(size);
   const exp = new Float64Array(size);
+  log.set(cache.previousLog.subarray(0, cache.poolCount * KK));
+  exp.set(cache.previousExp.subarray(0, cache.poolCount * KK));
   log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   cache.previousLog = log;
@@ -413,12 +458,12 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const { symbols, logEmissions, emissions, logStart, start } = lattice;
   for (let t = 0; t < T; t++) {
     const entry = wordEntry(model, cache, words[t], t === 0);
-    symbols[t] = cache.wordSymbol[entry];
-    const wordLog = cache.wordLog;
-    const wordExp = cache.wordExp;
-    for (let k = 0, from = entry * K, to = t * K; k < K; k++) {
-      logEmissions[to + k] = wordLog[from + k];
-      emissions[to + k] = wordExp[from + k];
+    const rows = cache.wordRows;
+    const at = entry * (2 * K + 1);
+    symbols[t] = rows[at];
+    for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
+      logEmissions[to + k] = rows[from + k];
+      emissions[to + k] = rows[from + K + k];
     }
   }
   const { parameters } = model;
@@ -441,8 +486,14 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
   if (T < 2) return lattice;
-  reservePatches(cache, T);
-  // Start afresh between sentences only: the steps of this one point into the slots.
+  // Start afresh between sentences only: the steps of this one point into the slots and the pool,
+  // which gains at most T − 1 matrices.
+  if (cache.poolCount + T > cache.patches && cache.patches < poolLimit(K)) reservePatches(cache, cache.poolCount + T);
+  if (cache.poolCount + T > cache.patches || cache.pool.size + T > POOL_PAIRS) {
+    clearPairs(cache.pool);
+    cache.poolCount = 1;
+    reservePatches(cache, T + 1);
+  }
   if (cache.previousCount + T > previousLimit(K)) {
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
@@ -470,17 +521,29 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const last = offsets[symbol + 1];
     // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
     const hasSegmentCells = first < last && cells[first] < KK;
-    const group = cache.previousAnyRow[slot] === 0 ? -1 : findEntry(cache.pairIndex!, previous * S + symbol);
-    if (!hasSegmentCells && group < 0) continue;
-    // This word overrides cells: patch a copy of the slot's matrix into patch matrix t.
+    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
+    if (!hasSegmentCells && !maybePair) continue;
+    const pooled = getPair(cache.pool, previous, symbol, -1);
+    if (pooled >= 0) {
+      if (pooled > 0) stepIndex[t] = pooled;
+      continue;
+    }
+    const group = maybePair ? findEntry(cache.pairIndex!, previous * S + symbol) : -1;
+    if (!hasSegmentCells && group < 0) {
+      setPair(cache.pool, previous, symbol, 0);
+      continue;
+    }
+    // This word overrides cells: patch a copy of the slot's matrix into a new pool matrix.
+    const patched = cache.poolCount++;
+    setPair(cache.pool, previous, symbol, patched);
     const logs = cache.previousLog;
     const exps = cache.previousExp;
-    const out = t * KK;
+    const out = patched * KK;
     const src = matrix * KK;
     // Native block copies (memmove), not K² element loads and stores.
     logs.copyWithin(out, src, src + KK);
     exps.copyWithin(out, src, src + KK);
-    stepIndex[t] = t;
+    stepIndex[t] = patched;
     const base = cache.previousBase;
     const from = slot * KK;
     // Segment-start cells where this word was seen after state i (exact ratio precomputed).

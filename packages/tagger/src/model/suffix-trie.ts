@@ -18,17 +18,21 @@ export type SuffixTrie = {
   readonly stats: SuffixStatistics;
   /** Trie node of each group's root (empty suffix), or −1; indexed by group. */
   readonly roots: Int32Array;
+  /** Memoised row of each root (see `slots`), indexed by group. */
+  readonly rootRows: Int32Array;
   /** Statistics node of each trie node's suffix, or −1. */
   readonly statNode: Int32Array;
-  /** Open-addressing child index: slot → (parent node, code unit, child node); childNode 0 = empty. */
-  readonly slotParent: Int32Array;
-  readonly slotUnit: Uint16Array;
-  readonly slotChild: Int32Array;
   /**
-   * Memoised rows of 2K numbers per node reached so far (rowOf[node], −1 before): the suffix's
-   * abstraction P(t | suffix), then the log ratio against the group's root (NaN until needed).
+   * Open-addressing child index of 4-int slots, one per trie edge and so one per non-root node,
+   * holding what a walk needs in one cache line: parent node, code unit, child node (0 = empty
+   * slot), and the child's state: −2 when its suffix has no statistics (or a zero total; the walk
+   * stops there), −1 before its row is computed, else its row number.
    */
-  readonly rowOf: Int32Array;
+  slots: Int32Array;
+  /**
+   * Memoised rows of 2K numbers per node reached so far: the suffix's abstraction P(t | suffix),
+   * then the log ratio against the group's root (NaN until needed).
+   */
   rows: Float64Array;
   rowCount: number;
 };
@@ -37,6 +41,9 @@ export type SuffixTrie = {
 const MAX_GROUP = 1 << 16;
 
 const SEPARATOR = 0x01;
+const SLOT = 4;
+const NO_STATISTICS = -2;
+const NO_ROW = -1;
 
 function slotOf(parent: number, unit: number, mask: number): number {
   let h = Math.imul(parent, 0x9e3779b1) ^ Math.imul(unit + 1, 0x85ebca6b);
@@ -60,27 +67,18 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
   // are normally stored too, so the trie has about as many nodes as the statistics.
   let nodes = 1;
   let statNode: Int32Array = new Int32Array(stats.index.size + 16).fill(-1);
-  let slots = 8;
-  while (slots < 2 * statNode.length) slots *= 2;
-  let slotParent = new Int32Array(slots);
-  let slotUnit = new Uint16Array(slots);
-  let slotChild = new Int32Array(slots);
-  const rehash = (): void => {
-    const parents = slotParent;
-    const units = slotUnit;
-    const children = slotChild;
-    slotParent = new Int32Array(2 * parents.length);
-    slotUnit = new Uint16Array(2 * parents.length);
-    slotChild = new Int32Array(2 * parents.length);
-    const mask = slotChild.length - 1;
-    for (let x = 0; x < children.length; x++) {
-      if (children[x] === 0) continue;
-      let s = slotOf(parents[x], units[x], mask);
-      while (slotChild[s] !== 0) s = (s + 1) & mask;
-      slotParent[s] = parents[x];
-      slotUnit[s] = units[x];
-      slotChild[s] = children[x];
-    }
+  let capacity = 8;
+  while (capacity < 2 * statNode.length) capacity *= 2;
+  let slots = new Int32Array(SLOT * capacity);
+  const place = (table: Int32Array, parent: number, unit: number, child: number, state: number): void => {
+    const mask = table.length / SLOT - 1;
+    let i = slotOf(parent, unit, mask);
+    while (table[SLOT * i + 2] !== 0) i = (i + 1) & mask;
+    const x = SLOT * i;
+    table[x] = parent;
+    table[x + 1] = unit;
+    table[x + 2] = child;
+    table[x + 3] = state;
   };
   const newNode = (): number => {
     const created = nodes++;
@@ -88,19 +86,20 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
     return created;
   };
   const child = (parent: number, unit: number): number => {
-    const mask = slotChild.length - 1;
-    let s = slotOf(parent, unit, mask);
-    for (;;) {
-      const c = slotChild[s];
+    const mask = slots.length / SLOT - 1;
+    for (let i = slotOf(parent, unit, mask); ; i = (i + 1) & mask) {
+      const x = SLOT * i;
+      const c = slots[x + 2];
       if (c === 0) break;
-      if (slotParent[s] === parent && slotUnit[s] === unit) return c;
-      s = (s + 1) & mask;
+      if (slots[x] === parent && slots[x + 1] === unit) return c;
     }
     const created = newNode();
-    slotParent[s] = parent;
-    slotUnit[s] = unit;
-    slotChild[s] = created;
-    if (2 * nodes > slotChild.length) rehash();
+    place(slots, parent, unit, created, NO_STATISTICS);
+    if (2 * nodes > slots.length / SLOT) {
+      const old = slots;
+      slots = new Int32Array(2 * old.length);
+      for (let x = 0; x < old.length; x += SLOT) if (old[x + 2] !== 0) place(slots, old[x], old[x + 1], old[x + 2], old[x + 3]);
+    }
     return created;
   };
   const rootList: number[] = [];
@@ -117,52 +116,56 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
     for (let x = key.length - 1; x > cut; x--) node = child(node, key.charCodeAt(x));
     statNode[node] = n;
   }
+  // The walk's stopping rule, stored with each edge: no statistics, or a zero total.
+  for (let x = 0; x < slots.length; x += SLOT) {
+    if (slots[x + 2] === 0) continue;
+    const n = statNode[slots[x + 2]];
+    slots[x + 3] = n < 0 || stats.totals[n] <= 0 ? NO_STATISTICS : NO_ROW;
+  }
   return {
     stats,
     roots: Int32Array.from(rootList),
+    rootRows: new Int32Array(rootList.length).fill(NO_ROW),
     statNode,
-    slotParent,
-    slotUnit,
-    slotChild,
-    rowOf: new Int32Array(statNode.length).fill(-1),
+    slots,
     rows: new Float64Array(128 * K),
     rowCount: 0,
   };
 }
 
-/** Row number of a node's memoised numbers, allocating one on first use. */
-function rowFor(trie: SuffixTrie, node: number): number {
-  let row = trie.rowOf[node];
-  if (row >= 0) return row;
+/** A new row number (rows grow by doubling). */
+function newRow(trie: SuffixTrie): number {
   const K = trie.stats.states;
-  row = trie.rowCount++;
+  const row = trie.rowCount++;
   if (trie.rows.length < (row + 1) * 2 * K) {
     const next = new Float64Array(2 * trie.rows.length);
     next.set(trie.rows);
     trie.rows = next;
   }
-  trie.rowOf[node] = row;
   return row;
 }
 
 /**
- * Adds log(P(t | group, longest known suffix of word) / P̂(t | group)) to out[at..at+K): the
- * numbers suffixLogRatio(trie.stats, word, group, …) computes, by the same operations in the same
- * order, with each suffix's abstraction P(t | suffix) memoised at its node.
+ * The memoised row of the longest known suffix of a word in a group: its K log ratios
+ * log(P(t | group, suffix) / P̂(t | group)) are trie.rows[2K·row + K ..+K), the numbers
+ * suffixLogRatio(trie.stats, word, group, …) computes, by the same operations in the same order.
+ * −1 when suffixLogRatio gives zeros without computing (no statistics for the group); words
+ * with the same row get the same numbers.
  */
-export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number, out: Float64Array, at: number): void {
-  const { stats, statNode, slotParent, slotUnit, slotChild } = trie;
-  if (!(group >= 0 && group < trie.roots.length)) return;
+export function suffixRatioRow(trie: SuffixTrie, word: string, group: number): number {
+  const { stats, statNode } = trie;
+  if (!(group >= 0 && group < trie.roots.length)) return -1;
   const root = trie.roots[group];
-  if (root < 0) return;
+  if (root < 0) return -1;
   const rootStat = statNode[root];
-  if (rootStat < 0 || stats.totals[rootStat] <= 0) return;
+  if (rootStat < 0 || stats.totals[rootStat] <= 0) return -1;
   const K = stats.states;
   const { offsets, tags, counts, totals, theta } = stats;
-  let row = trie.rowOf[root];
+  let row = trie.rootRows[group];
   if (row < 0) {
     // Row layout: [P(t | suffix) (K) | log ratio (K), NaN until computed].
-    row = rowFor(trie, root);
+    row = newRow(trie);
+    trie.rootRows[group] = row;
     const rows = trie.rows;
     const base = 2 * K * row;
     rows.fill(0, base, base + K);
@@ -170,29 +173,31 @@ export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number,
     rows.fill(NaN, base + K, base + 2 * K);
   }
   const rootRow = row;
-  const mask = slotChild.length - 1;
+  const slots = trie.slots;
+  const mask = slots.length / SLOT - 1;
   const longest = Math.min(stats.maxLength, word.length);
   let node = root;
   for (let l = 1; l <= longest; l++) {
     const unit = word.charCodeAt(word.length - l);
-    let s = slotOf(node, unit, mask);
-    let next = -1;
-    for (;;) {
-      const c = slotChild[s];
+    let found = -1;
+    for (let i = slotOf(node, unit, mask); ; i = (i + 1) & mask) {
+      const x = SLOT * i;
+      const c = slots[x + 2];
       if (c === 0) break;
-      if (slotParent[s] === node && slotUnit[s] === unit) {
-        next = c;
+      if (slots[x] === node && slots[x + 1] === unit) {
+        found = x;
         break;
       }
-      s = (s + 1) & mask;
     }
     // Longer suffixes of an unseen suffix are unseen too: stop at the longest one observed.
-    if (next < 0) break;
-    const n = statNode[next];
-    if (n < 0 || totals[n] <= 0) break;
-    let child = trie.rowOf[next];
-    if (child < 0) {
-      child = rowFor(trie, next);
+    if (found < 0) break;
+    let child = slots[found + 3];
+    if (child === NO_STATISTICS) break;
+    node = slots[found + 2];
+    if (child === NO_ROW) {
+      child = newRow(trie);
+      slots[found + 3] = child;
+      const n = statNode[node];
       const rows = trie.rows;
       const from = 2 * K * row;
       const to = 2 * K * child;
@@ -201,7 +206,6 @@ export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number,
       for (let k = 0; k < K; k++) rows[to + k] /= 1 + theta;
       rows.fill(NaN, to + K, to + 2 * K);
     }
-    node = next;
     row = child;
   }
   const rows = trie.rows;
@@ -213,5 +217,14 @@ export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number,
       rows[r + K + k] = base > 0 ? Math.log(rows[r + k] / base) : 0;
     }
   }
-  for (let k = 0; k < K; k++) out[at + k] += rows[r + K + k];
+  return row;
+}
+
+/** Adds the log ratios of {@link suffixRatioRow} to out[at..at+K) (nothing for −1). */
+export function addSuffixLogRatio(trie: SuffixTrie, word: string, group: number, out: Float64Array, at: number): void {
+  const row = suffixRatioRow(trie, word, group);
+  if (row < 0) return;
+  const K = trie.stats.states;
+  const rows = trie.rows;
+  for (let k = 0, from = 2 * K * row + K; k < K; k++) out[at + k] += rows[from + k];
 }

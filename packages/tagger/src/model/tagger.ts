@@ -1,4 +1,4 @@
-import { tagsToChunks } from "../text/bio";
+import { isIobTag, tagsToChunks, type Chunk } from "../text/bio";
 import type { ColumnDocument } from "../text/conll";
 import { decodeSentence, sentencePosteriors } from "./decode";
 import { nltkCompatibleConfig } from "../estimation/nltk-compatible";
@@ -7,6 +7,7 @@ import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/s
 import { chunkConfidences, chunkConfidencesScaled } from "./span-confidence";
 import { buildSentenceLattice, fastLatticeApplies, type SentenceLattice } from "./sentence-lattice";
 import { computeScaledForwardBackward } from "../kernels/forward-backward-scaled";
+import { SCALED_UNROLL_LIMIT, scaledForwardBackwardFrom } from "../kernels/forward-backward-scaled-unrolled";
 import { decodeViterbiJs } from "../kernels/viterbi";
 import { checkShapes } from "../kernels/hmm-params";
 import { assembleModel, type TaggerModel } from "./tagger-model";
@@ -151,22 +152,81 @@ function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array
   return decodeViterbiJs(params, input, lattice.path, lattice.viterbi).path;
 }
 
+/** Per state of an iob model: 0 for O, 1 for B-X, 2 for I-X, and X (one string per type). */
+type ChunkStates = { kind: Uint8Array; type: string[] } | null;
+const chunkStateCache = new WeakMap<TaggerModel, ChunkStates>();
+
+function chunkStatesOf(model: TaggerModel): ChunkStates {
+  let states = chunkStateCache.get(model);
+  if (states === undefined) {
+    const types = new Map<string, string>();
+    const kind = new Uint8Array(model.tags.length);
+    const type: string[] = [];
+    let valid = true;
+    model.tags.forEach((tag, k) => {
+      if (!isIobTag(tag)) valid = false;
+      kind[k] = tag === "O" ? 0 : tag.charCodeAt(0) === 0x42 ? 1 : 2;
+      const name = tag === "O" ? "" : tag.slice(2);
+      if (!types.has(name)) types.set(name, name);
+      type.push(types.get(name)!);
+    });
+    states = valid ? { kind, type } : null;
+    chunkStateCache.set(model, states);
+  }
+  return states;
+}
+
+/**
+ * tagsToChunks(tags) read off the state path (the same chunks, by the same conlleval rules,
+ * without parsing tag strings); tags is the path's tag names, used when a tag is not IOB.
+ */
+function pathChunks(model: TaggerModel, path: Int32Array, T: number, tags: readonly string[]): Chunk[] {
+  const states = chunkStatesOf(model);
+  if (states === null) return tagsToChunks(tags);
+  const { kind, type } = states;
+  const chunks: Chunk[] = [];
+  let openType: string | null = null;
+  let openStart = 0;
+  for (let i = 0; i < T; i++) {
+    const k = path[i];
+    if (kind[k] === 0) {
+      if (openType !== null) chunks.push({ type: openType, start: openStart, end: i });
+      openType = null;
+      continue;
+    }
+    if (kind[k] === 1 || openType !== type[k]) {
+      if (openType !== null) chunks.push({ type: openType, start: openStart, end: i });
+      openType = type[k];
+      openStart = i;
+    }
+  }
+  if (openType !== null) chunks.push({ type: openType, start: openStart, end: T });
+  return chunks;
+}
+
 /**
  * The tagging path of first-order models (see sentence-lattice.ts): one lattice build, Viterbi,
- * one scaled forward-backward and the chunk probabilities read off it. Null when the scaled
- * lattice underflows; the caller then takes the log-space path.
+ * the chunks of its path, one scaled forward-backward (β̂ only from the earliest chunk end on,
+ * the only β̂ the chunk probabilities read) and the chunk probabilities read off it. Null when
+ * the scaled lattice underflows; the caller then takes the log-space path.
  */
 function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSentenceResult | null {
   const K = model.tags.length;
   const lattice = buildSentenceLattice(model, words);
   const T = lattice.length;
-  const logLikelihood = computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled);
-  if (Number.isNaN(logLikelihood)) return null;
   const path = decodeLattice(model, lattice);
   const tags = new Array<string>(T);
   for (let t = 0; t < T; t++) tags[t] = model.tags[path[t]];
-  if (model.scheme !== "iob") return { tags, chunks: [], logLikelihood };
-  const chunks = tagsToChunks(tags);
+  const iob = model.scheme === "iob";
+  const chunks = iob ? pathChunks(model, path, T, tags) : [];
+  let from = T - 1;
+  for (let c = 0; c < chunks.length; c++) if (chunks[c].end < from) from = chunks[c].end;
+  const logLikelihood =
+    K <= SCALED_UNROLL_LIMIT
+      ? scaledForwardBackwardFrom(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled, from)
+      : computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled);
+  if (Number.isNaN(logLikelihood)) return null;
+  if (!iob) return { tags, chunks: [], logLikelihood };
   const confidences = calibrated(model, chunks, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
   return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
 }
