@@ -159,56 +159,52 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
   for (let n = 2; n <= N; n++) xlogx[n] = n * Math.log(n);
   const qq = (n: number, lnA: number, lnB: number) => (n > 0 ? xlogx[n] + n * (lnN - lnA - lnB) : 0);
 
-  // m + 1 clusters in the window, plus the sentence boundary: a cluster of its own that never merges.
+  // Slots 1..A−1 hold the active clusters, contiguous (a merge moves the last slot into the freed
+  // one); slot 0 is the sentence boundary, a cluster of its own that never merges. At most m + 1
+  // clusters are active. Matrices are M×M, row-major; each one's transpose or mirror is kept too,
+  // so that every inner loop reads rows.
   const M = Math.min(m, V) + 2;
-  const boundary = M - 1;
-  // Per slot pair (row = left cluster): bigram counts and their q̃; per unordered pair (upper
-  // triangle): Δ̃ and the log marginals of the merged cluster. Per slot: marginals and their logs.
-  const n2 = new Float64Array(M * M);
-  const Q = new Float64Array(M * M);
-  const D = new Float64Array(M * M);
-  const mergedLnLeft = new Float64Array(M * M);
+  const n2 = new Int32Array(M * M); // n2[a·M + b]: bigrams with the left word in a, the right in b
+  const n2T = new Int32Array(M * M); // n2T[b·M + a] = n2[a·M + b]
+  const Q = new Float64Array(M * M); // q̃ of n2's cells
+  const QT = new Float64Array(M * M);
+  const D = new Float64Array(M * M); // Δ̃ of merging two slots, symmetric
+  const mergedLnLeft = new Float64Array(M * M); // ln(nl[s] + nl[t]), symmetric
   const mergedLnRight = new Float64Array(M * M);
   const nl = new Float64Array(M);
   const nr = new Float64Array(M);
   const lnl = new Float64Array(M);
   const lnr = new Float64Array(M);
+  /** Lowest word rank in the slot's cluster (V for the boundary): the cluster's name. */
   const key = new Int32Array(M);
   const node = new Int32Array(M);
-  const active = new Int32Array(M);
   const mark = new Int32Array(M);
   const neighbours = new Int32Array(M);
-  let activeCount = 0;
-  // Free slots, popped from the end: the boundary's slot first, then 0, 1, ….
-  const free: number[] = [];
-  for (let s = M - 2; s >= 0; s--) free.push(s);
-  free.push(boundary);
-  const wordSlot = new Int32Array(V + 1).fill(-1);
-  const head = new Int32Array(M).fill(-1);
-  const tail = new Int32Array(M).fill(-1);
+  let A = 0;
+  // Per type (V = the boundary): the name of its cluster (−1 before it enters); per name: its slot
+  // and its member list.
+  const clusterOfWord = new Int32Array(V + 1).fill(-1);
+  const slotOf = new Int32Array(V + 1).fill(-1);
+  const head = new Int32Array(V + 1).fill(-1);
+  const tail = new Int32Array(V + 1).fill(-1);
   const next = new Int32Array(V + 1).fill(-1);
   // Merge tree above the output clusters: node ids ≥ V are internal (children in `children`).
   const children: number[] = [];
   let ami = 0;
 
-  const cell = (s: number, t: number) => (s < t ? s * M + t : t * M + s);
-
   /** Δ̃(s, t): N × (the AMI after merging s and t minus the AMI now), from scratch (O(m)). */
   const deltaFromScratch = (s: number, t: number): number => {
-    const c = cell(s, t);
-    const lnlM = mergedLnLeft[c];
-    const lnrM = mergedLnRight[c];
     const sRow = s * M;
     const tRow = t * M;
+    const lnlM = mergedLnLeft[sRow + t];
+    const lnrM = mergedLnRight[sRow + t];
     let sum = 0;
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
+    for (let x = 0; x < A; x++) {
       if (x === s || x === t) continue;
-      const xRow = x * M;
-      const into = n2[xRow + s] + n2[xRow + t];
+      const into = n2T[sRow + x] + n2T[tRow + x];
       const out = n2[sRow + x] + n2[tRow + x];
-      if (into > 0) sum += qq(into, lnl[x], lnrM) - Q[xRow + s] - Q[xRow + t];
-      if (out > 0) sum += qq(out, lnlM, lnr[x]) - Q[sRow + x] - Q[tRow + x];
+      if (into > 0) sum += xlogx[into] + into * (lnN - lnl[x] - lnrM) - QT[sRow + x] - QT[tRow + x];
+      if (out > 0) sum += xlogx[out] + out * (lnN - lnlM - lnr[x]) - Q[sRow + x] - Q[tRow + x];
     }
     const self = n2[sRow + s] + n2[sRow + t] + n2[tRow + s] + n2[tRow + t];
     return sum + qq(self, lnlM, lnrM) - Q[sRow + s] - Q[sRow + t] - Q[tRow + s] - Q[tRow + t];
@@ -218,19 +214,23 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
   const refresh = (z: number) => {
     lnl[z] = Math.log(nl[z]);
     lnr[z] = Math.log(nr[z]);
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
-      Q[z * M + x] = qq(n2[z * M + x], lnl[z], lnr[x]);
-      Q[x * M + z] = qq(n2[x * M + z], lnl[x], lnr[z]);
+    const zRow = z * M;
+    for (let x = 0; x < A; x++) {
+      const xRow = x * M;
+      const out = qq(n2[zRow + x], lnl[z], lnr[x]);
+      const into = qq(n2T[zRow + x], lnl[x], lnr[z]);
+      Q[zRow + x] = out;
+      QT[xRow + z] = out;
+      Q[xRow + z] = into;
+      QT[zRow + x] = into;
       if (x !== z) {
-        mergedLnLeft[cell(z, x)] = Math.log(nl[z] + nl[x]);
-        mergedLnRight[cell(z, x)] = Math.log(nr[z] + nr[x]);
+        mergedLnLeft[zRow + x] = mergedLnLeft[xRow + z] = Math.log(nl[z] + nl[x]);
+        mergedLnRight[zRow + x] = mergedLnRight[xRow + z] = Math.log(nr[z] + nr[x]);
       }
     }
-    if (z === boundary) return;
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
-      if (x !== z && x !== boundary) D[cell(z, x)] = deltaFromScratch(z, x);
+    if (z === 0) return;
+    for (let x = 1; x < A; x++) {
+      if (x !== z) D[zRow + x] = D[x * M + z] = deltaFromScratch(z, x);
     }
   };
 
@@ -240,11 +240,12 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
    */
   const listNeighbours = (a: number, b: number): number => {
     let count = 0;
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
+    const aRow = a * M;
+    const bRow = b * M;
+    for (let x = 1; x < A; x++) {
       mark[x] = 0;
-      if (x === a || x === b || x === boundary) continue;
-      if (n2[a * M + x] !== 0 || n2[x * M + a] !== 0 || (b >= 0 && (n2[b * M + x] !== 0 || n2[x * M + b] !== 0))) {
+      if (x === a || x === b) continue;
+      if (n2[aRow + x] !== 0 || n2T[aRow + x] !== 0 || (b >= 0 && (n2[bRow + x] !== 0 || n2T[bRow + x] !== 0))) {
         neighbours[count++] = x;
         mark[x] = count;
       }
@@ -253,64 +254,69 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
   };
 
   const enter = (r: number) => {
-    const z = free.pop()!;
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
-      n2[z * M + x] = 0;
+    const z = A++;
+    const zRow = z * M;
+    for (let x = 0; x < A; x++) {
+      n2[zRow + x] = 0;
       n2[x * M + z] = 0;
+      n2T[zRow + x] = 0;
+      n2T[x * M + z] = 0;
     }
-    n2[z * M + z] = 0;
-    wordSlot[r] = z;
+    clusterOfWord[r] = r;
+    slotOf[r] = z;
+    head[r] = r;
+    tail[r] = r;
     for (let e = bigrams.rightOffsets[r]; e < bigrams.rightOffsets[r + 1]; e++) {
-      const x = wordSlot[bigrams.rightTo[e]];
-      if (x >= 0) n2[z * M + x] += bigrams.rightCount[e];
+      const name = clusterOfWord[bigrams.rightTo[e]];
+      if (name >= 0) n2[zRow + slotOf[name]] += bigrams.rightCount[e];
     }
     for (let e = bigrams.leftOffsets[r]; e < bigrams.leftOffsets[r + 1]; e++) {
       const a = bigrams.leftFrom[e];
-      const x = wordSlot[a];
-      if (x >= 0 && a !== r) n2[x * M + z] += bigrams.leftCount[e];
+      const name = clusterOfWord[a];
+      if (name >= 0 && a !== r) n2[slotOf[name] * M + z] += bigrams.leftCount[e];
+    }
+    for (let x = 0; x < A; x++) {
+      n2T[x * M + z] = n2[zRow + x];
+      n2T[zRow + x] = n2[x * M + z];
     }
     nl[z] = bigrams.left[r];
     nr[z] = bigrams.right[r];
     key[z] = r;
     node[z] = r;
-    head[z] = r;
-    tail[z] = r;
-    active[activeCount++] = z;
     refresh(z);
+    if (z === 0) {
+      ami += Q[0];
+      return;
+    }
     // The new cluster adds its terms to the Δ̃ of every pair it shares a bigram with.
     const count = listNeighbours(z, -1);
     const lz = lnl[z];
     const rz = lnr[z];
     for (let a = 0; a < count; a++) {
       const s = neighbours[a];
-      for (let j = 0; j < activeCount; j++) {
-        const t = active[j];
-        if (t === s || t === z || t === boundary || (mark[t] !== 0 && mark[t] < mark[s])) continue;
-        const c = cell(s, t);
-        const into = n2[z * M + s] + n2[z * M + t];
-        const out = n2[s * M + z] + n2[t * M + z];
+      const sRow = s * M;
+      const zs = n2[zRow + s];
+      const sz = n2T[zRow + s];
+      const qzs = Q[zRow + s];
+      const qsz = QT[zRow + s];
+      for (let t = 1; t < z; t++) {
+        if (t === s || (mark[t] !== 0 && mark[t] < mark[s])) continue;
+        const into = zs + n2[zRow + t];
+        const out = sz + n2T[zRow + t];
         let change = 0;
-        if (into > 0) change += qq(into, lz, mergedLnRight[c]) - Q[z * M + s] - Q[z * M + t];
-        if (out > 0) change += qq(out, mergedLnLeft[c], rz) - Q[s * M + z] - Q[t * M + z];
-        D[c] += change;
+        if (into > 0) change += qq(into, lz, mergedLnRight[sRow + t]) - qzs - Q[zRow + t];
+        if (out > 0) change += qq(out, mergedLnLeft[sRow + t], rz) - qsz - QT[zRow + t];
+        D[sRow + t] += change;
+        D[t * M + s] = D[sRow + t];
       }
     }
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
-      ami += Q[z * M + x];
+    for (let x = 0; x < A; x++) {
+      ami += Q[zRow + x];
       if (x !== z) ami += Q[x * M + z];
     }
   };
 
-  const assignment = (): Int32Array => {
-    const out = new Int32Array(V).fill(-1);
-    for (let i = 0; i < activeCount; i++) {
-      const s = active[i];
-      if (s !== boundary) for (let w = head[s]; w >= 0; w = next[w]) out[w] = key[s];
-    }
-    return out;
-  };
+  const assignment = (): Int32Array => clusterOfWord.slice(0, V);
 
   /** True when the pair (s, t) comes before (bu, bv) in the tie order (more frequent words first). */
   const pairBefore = (s: number, t: number, bu: number, bv: number): boolean => {
@@ -321,17 +327,26 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
     return Math.max(key[s], key[t]) < Math.max(key[bu], key[bv]);
   };
 
+  /** Moves slot `from` into slot `to` (rows, then columns, of every matrix). */
+  const moveSlot = (from: number, to: number) => {
+    const fRow = from * M;
+    const tRow = to * M;
+    for (const matrix of [n2, n2T, Q, QT, D, mergedLnLeft, mergedLnRight]) {
+      matrix.copyWithin(tRow, fRow, fRow + A);
+      for (let x = 0; x < A; x++) matrix[x * M + to] = matrix[x * M + from];
+    }
+    for (const vector of [nl, nr, lnl, lnr, key, node]) vector[to] = vector[from];
+    slotOf[key[to]] = to;
+  };
+
   const mergeBest = (phase: MergeEvent["phase"]) => {
     let bu = -1;
     let bv = -1;
     let best = -Infinity;
-    for (let i = 0; i < activeCount; i++) {
-      const s = active[i];
-      if (s === boundary) continue;
-      for (let j = i + 1; j < activeCount; j++) {
-        const t = active[j];
-        if (t === boundary) continue;
-        const d = D[cell(s, t)];
+    for (let s = 1; s < A; s++) {
+      const sRow = s * M;
+      for (let t = s + 1; t < A; t++) {
+        const d = D[sRow + t];
         if (d > best || (d === best && pairBefore(s, t, bu, bv))) {
           best = d;
           bu = s;
@@ -339,93 +354,104 @@ export function learnBrownClusters(sentences: readonly (readonly string[])[], op
         }
       }
     }
-    // u keeps the merged cluster w: the one with the more frequent word, so keys stay lowest ranks.
+    // u keeps the merged cluster w: the one with the more frequent word, so names stay lowest ranks.
     let u = bu;
     let v = bv;
     if (key[v] < key[u]) [u, v] = [v, u];
     // Every pair (s, t) sharing a bigram with u or v trades its terms with u and v for those with w.
     const count = listNeighbours(u, v);
-    const lw = mergedLnLeft[cell(u, v)];
-    const rw = mergedLnRight[cell(u, v)];
     const uRow = u * M;
     const vRow = v * M;
+    const lw = mergedLnLeft[uRow + v];
+    const rw = mergedLnRight[uRow + v];
     for (let a = 0; a < count; a++) {
       const s = neighbours[a];
-      for (let j = 0; j < activeCount; j++) {
-        const t = active[j];
-        if (t === s || t === u || t === v || t === boundary || (mark[t] !== 0 && mark[t] < mark[s])) continue;
-        const c = cell(s, t);
-        const lst = mergedLnLeft[c];
-        const rst = mergedLnRight[c];
-        const sRow = s * M;
-        const tRow = t * M;
+      const sRow = s * M;
+      const us = n2[uRow + s];
+      const vs = n2[vRow + s];
+      const su = n2T[uRow + s];
+      const sv = n2T[vRow + s];
+      const ws = us + vs;
+      const sw = su + sv;
+      const qus = Q[uRow + s];
+      const qvs = Q[vRow + s];
+      const qsu = QT[uRow + s];
+      const qsv = QT[vRow + s];
+      const qws = qq(ws, lw, lnr[s]);
+      const qsw = qq(sw, lnl[s], rw);
+      for (let t = 1; t < A; t++) {
+        if (t === s || t === u || t === v || (mark[t] !== 0 && mark[t] < mark[s])) continue;
+        const lst = mergedLnLeft[sRow + t];
+        const rst = mergedLnRight[sRow + t];
         let change = 0;
-        // Terms with u (x = u), with v, and with w = u + v (left into s+t, then s+t into right).
-        const us = n2[uRow + s];
+        // Terms with u, with v and with w = u + v: left of s+t, then right of it.
         const ut = n2[uRow + t];
-        const vs = n2[vRow + s];
         const vt = n2[vRow + t];
-        if (us + ut > 0) change -= qq(us + ut, lnl[u], rst) - Q[uRow + s] - Q[uRow + t];
-        if (vs + vt > 0) change -= qq(vs + vt, lnl[v], rst) - Q[vRow + s] - Q[vRow + t];
-        const ws = us + vs;
+        if (us + ut > 0) change -= qq(us + ut, lnl[u], rst) - qus - Q[uRow + t];
+        if (vs + vt > 0) change -= qq(vs + vt, lnl[v], rst) - qvs - Q[vRow + t];
         const wt = ut + vt;
-        if (ws + wt > 0) change += qq(ws + wt, lw, rst) - qq(ws, lw, lnr[s]) - qq(wt, lw, lnr[t]);
-        const su = n2[sRow + u];
-        const tu = n2[tRow + u];
-        const sv = n2[sRow + v];
-        const tv = n2[tRow + v];
-        if (su + tu > 0) change -= qq(su + tu, lst, lnr[u]) - Q[sRow + u] - Q[tRow + u];
-        if (sv + tv > 0) change -= qq(sv + tv, lst, lnr[v]) - Q[sRow + v] - Q[tRow + v];
-        const sw = su + sv;
+        if (ws + wt > 0) change += qq(ws + wt, lw, rst) - qws - qq(wt, lw, lnr[t]);
+        const tu = n2T[uRow + t];
+        const tv = n2T[vRow + t];
+        if (su + tu > 0) change -= qq(su + tu, lst, lnr[u]) - qsu - QT[uRow + t];
+        if (sv + tv > 0) change -= qq(sv + tv, lst, lnr[v]) - qsv - QT[vRow + t];
         const tw = tu + tv;
-        if (sw + tw > 0) change += qq(sw + tw, lst, rw) - qq(sw, lnl[s], rw) - qq(tw, lnl[t], rw);
-        D[c] += change;
+        if (sw + tw > 0) change += qq(sw + tw, lst, rw) - qsw - qq(tw, lnl[t], rw);
+        D[sRow + t] += change;
+        D[t * M + s] = D[sRow + t];
       }
     }
     ami += best;
     const self = n2[uRow + u] + n2[uRow + v] + n2[vRow + u] + n2[vRow + v];
-    for (let i = 0; i < activeCount; i++) {
-      const x = active[i];
+    for (let x = 0; x < A; x++) {
       if (x === u || x === v) continue;
       n2[uRow + x] += n2[vRow + x];
-      n2[x * M + u] += n2[x * M + v];
+      n2T[uRow + x] += n2T[vRow + x];
+      n2[x * M + u] = n2T[uRow + x];
+      n2T[x * M + u] = n2[uRow + x];
     }
     n2[uRow + u] = self;
+    n2T[uRow + u] = self;
     nl[u] += nl[v];
     nr[u] += nr[v];
-    for (let w = head[v]; w >= 0; w = next[w]) wordSlot[w] = u;
-    next[tail[u]] = head[v];
-    tail[u] = tail[v];
+    const kept = key[u];
+    const gone = key[v];
+    for (let w = head[gone]; w >= 0; w = next[w]) clusterOfWord[w] = kept;
+    next[tail[kept]] = head[gone];
+    tail[kept] = tail[gone];
+    slotOf[gone] = -1;
     if (phase === "tree") {
       children.push(node[u], node[v]);
       node[u] = V + children.length / 2 - 1;
     }
-    const at = active.indexOf(v);
-    active.copyWithin(at, at + 1, activeCount);
-    activeCount--;
-    free.push(v);
+    const last = A - 1;
+    if (v !== last) {
+      moveSlot(last, v);
+      if (u === last) u = v;
+    }
+    A--;
     refresh(u);
-    if (options.onMerge !== undefined) options.onMerge({ phase, merged: [key[u], key[v]], ami: ami / N, assignment });
+    if (options.onMerge !== undefined) options.onMerge({ phase, merged: [kept, gone], ami: ami / N, assignment });
   };
 
   enter(V);
   for (let r = 0; r < V; r++) {
     enter(r);
-    if (activeCount - 1 > m) mergeBest("window");
+    if (A - 1 > m) mergeBest("window");
   }
 
   // The output clusters, numbered by their most frequent word; then the tree above them.
-  const order = Array.from(active.subarray(0, activeCount))
-    .filter((s) => s !== boundary)
-    .sort((a, b) => key[a] - key[b]);
+  const order: number[] = [];
+  for (let s = 1; s < A; s++) order.push(key[s]);
+  order.sort((a, b) => a - b);
   const cluster = new Int32Array(V);
   const leafNode = new Int32Array(order.length);
-  order.forEach((s, c) => {
-    for (let w = head[s]; w >= 0; w = next[w]) cluster[w] = c;
-    leafNode[c] = node[s];
+  order.forEach((name, c) => {
+    for (let w = head[name]; w >= 0; w = next[w]) cluster[w] = c;
+    leafNode[c] = node[slotOf[name]];
   });
-  while (activeCount > 2) mergeBest("tree");
-  const paths = bitPaths(node[active[0] === boundary ? active[1] : active[0]], V, children, leafNode);
+  while (A > 2) mergeBest("tree");
+  const paths = bitPaths(node[1], V, children, leafNode);
   const index = new Map<string, number>();
   words.forEach((w, i) => index.set(w, i));
   return { words, cluster, paths, index };
