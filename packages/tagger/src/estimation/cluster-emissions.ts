@@ -33,7 +33,13 @@ export type ClusterEmissions = {
   readonly scratch: Float64Array;
 };
 
-/** Successive-abstraction weight θ of the prefix statistics (the trigram candidate's suffix θ in select-config.ts). */
+/**
+ * Successive-abstraction weight θ of the prefix statistics: 1 over 0.25 and 4 by 5-fold CV on
+ * lower-cased wikigold train+dev with 50 clusters that also saw the held-out text (F1 0.4293
+ * against 0.4234 and 0.4285). The statistics count the tokens of words seen at most
+ * suffixMaxFrequency (10) times, as the suffix model does (0.4293 against 0.4262 for words seen
+ * at most `rare` times and 0.4124 for every word).
+ */
 export const CLUSTER_THETA = 1;
 
 const reverse = (path: string) => path.split("").reverse().join("");
