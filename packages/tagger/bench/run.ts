@@ -7,6 +7,7 @@
  *  4. wikigold cross-validated and test F1 per configuration (bench/wikigold.ts).
  *  5. Brown news accuracy and NLTK agreement (bench/brown.ts).
  *  6. End-to-end tagging throughput and span-confidence calibration (bench/calibration.ts).
+ *  7. Word clusters on wikigold and informal-text proxies (bench/clusters.ts).
  * Pass section numbers to run only some of them: `tsx bench/run.ts 1 3`.
  */
 import { execFileSync, spawnSync } from "node:child_process";
@@ -19,6 +20,7 @@ import { calibrationReport } from "./calibration";
 import { isWasmSimdAvailable } from "../src/kernels/viterbi-wasm";
 import { brownReport, brownSelectionReport, nltkAgreement } from "./brown";
 import { WIKIGOLD_CONFIGURATIONS, wikigoldReport } from "./wikigold";
+import { clusterReport, clusteringSeconds } from "./clusters";
 
 const here = fileURLToPath(new URL(".", import.meta.url));
 const shared = process.env.TAGLOOM_SHARED ?? resolve(here, "../../../../shared");
@@ -93,3 +95,11 @@ if (want(3)) memory();
 if (want(4)) wikigold();
 if (want(5)) brown();
 if (want(6)) tagging();
+
+function clusters(): void {
+  print("7. Word clusters: entity F1, 5-fold CV over train+dev articles (mean ± std) and test, on wikigold and its informal-text proxies");
+  for (const r of clusteringSeconds(join(shared, "data", "wikigold"), [50, 100])) print(`   clustering ${r.tokens} tokens (${r.types} types) into ${r.clusters} clusters: ${r.seconds.toFixed(1)} s`);
+  for (const r of clusterReport(join(shared, "data", "wikigold"))) print(`   ${r.variant.padEnd(7)} CV ${r.cvMean.toFixed(4)} ± ${r.cvStd.toFixed(3)}   test ${r.testF1.toFixed(4)}   ${r.name}`);
+}
+
+if (want(7)) clusters();

@@ -31,7 +31,7 @@ describe("tagger CLI", () => {
     const train = run(["train", "--train", "train.bio", "--out", "model.json", "--rare", "0"], { cwd: dir });
     expect(train.stderr).toBe("");
     expect(train.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(4);
+    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(5);
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
@@ -149,6 +149,30 @@ describe("tagger CLI", () => {
     const future = run(["tag", "--model", "future.json"], { cwd: dir, input: "a\n" });
     expect(future.code).toBe(2);
     expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 99/);
+  });
+
+  it("train --clusters N --unlabelled FILE stores clusters of the training and unlabelled words", () => {
+    writeFileSync(join(dir, "unlabelled.txt"), "Nessa\nArvell\nlives\nin\nTirranel\n.\n\nShe\nworks\nfor\nPlumbrix\n.\n");
+    const train = run(["train", "--train", "train.bio", "--out", "clusters.json", "--clusters", "4", "--unlabelled", "unlabelled.txt", "--select", "off"], { cwd: dir });
+    expect(train.stderr).toBe("");
+    expect(train.code).toBe(0);
+    const model = JSON.parse(readFileSync(join(dir, "clusters.json"), "utf8"));
+    expect(model.config.clusters).toBe(4);
+    expect(model.parameters.clusters.words).toEqual(expect.arrayContaining(["Tirranel", "Velmora"]));
+    const tagged = run(["tag", "--model", "clusters.json"], { cwd: dir, input: "Nessa\nlives\nin\nTirranel\n" });
+    expect(tagged.code).toBe(0);
+    expect(tagged.stdout.split("\n")).toHaveLength(6);
+    for (const [args, message] of [
+      [["--clusters=-1"], /--clusters: expected an integer from 0 to 1000, got "-1"/],
+      [["--clusters", "2.5"], /--clusters: expected an integer/],
+      [["--unlabelled", "unlabelled.txt"], /--unlabelled needs --semi em\|sample or --clusters N/],
+      [["--clusters", "0", "--unlabelled", "unlabelled.txt"], /--unlabelled needs/],
+    ] as const) {
+      const bad = run(["train", "--train", "train.bio", "--out", "bad-clusters.json", ...args], { cwd: dir });
+      expect(bad.code, args.join(" ")).toBe(2);
+      expect(bad.stderr).toMatch(message);
+      expect(existsSync(join(dir, "bad-clusters.json"))).toBe(false);
+    }
   });
 
   it("rejects bad options with usage and exit code 2", () => {

@@ -46,6 +46,9 @@ training options:
   --end-state on|off             model sentence ends
   --constrain-iob on|off         forbid invalid IOB2 transitions
   --unlabelled FILE --semi em|sample --iterations N --weight W --seed N
+  --clusters N                   N word clusters learned from the training text and any --unlabelled
+                                 FILE (tokens one per line, blank line between sentences) refine
+                                 unknown and rare words (0 = off, the default)
   --calibration platt-length|platt|none  span confidences calibrated on 5-fold CV of the training data (default platt-length: Platt with ln span length)
   --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)
   --select cv|off                choose first-order or trigram by 3-fold CV of the training data
@@ -79,6 +82,7 @@ const OPTIONS = {
   weight: { type: "string" },
   seed: { type: "string" },
   calibration: { type: "string" },
+  clusters: { type: "string" },
   beam: { type: "string" },
   "nltk-compatible": { type: "boolean" },
   select: { type: "string" },
@@ -115,6 +119,9 @@ function choice<T extends string>(name: string, text: string | undefined, allowe
   if (!allowed.includes(text as T)) throw new UsageError(`--${name}: expected ${allowed.join(", ")}, got "${text}"`);
   return text as T;
 }
+
+/** Clustering keeps (m + 2)² numbers per table: 1,000 clusters take about 40 MB. */
+const MAX_CLUSTERS = 1000;
 
 /** The training options given on the command line (unset ones keep their defaults). */
 function trainingConfig(values: Values): Partial<TrainingConfig> {
@@ -166,9 +173,12 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values.seed !== undefined) config.seed = number("seed", values.seed, Number.isInteger, "an integer");
   if (values.beam !== undefined) config.beam = number("beam", values.beam, (n) => n >= 1, "a number ≥ 1");
   if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "platt-length", "none"] as const);
+  if (values.clusters !== undefined) config.clusters = number("clusters", values.clusters, (n) => Number.isInteger(n) && n >= 0 && n <= MAX_CLUSTERS, `an integer from 0 to ${MAX_CLUSTERS}`);
   if (values["nltk-compatible"] === true) config.nltkCompatible = true;
   if (config.semi !== undefined && (values.unlabelled ?? []).length === 0) throw new UsageError("--semi needs --unlabelled FILE");
-  if ((values.unlabelled ?? []).length > 0 && config.semi === undefined) throw new UsageError("--unlabelled needs --semi em|sample");
+  if ((values.unlabelled ?? []).length > 0 && config.semi === undefined && !(config.clusters !== undefined && config.clusters > 0)) {
+    throw new UsageError("--unlabelled needs --semi em|sample or --clusters N");
+  }
   return config;
 }
 

@@ -16,7 +16,13 @@ import type { TrainingConfig } from "./training-config";
 
 export type SelectionCandidate = { readonly name: string; readonly config: Partial<TrainingConfig> };
 
-/** Candidates in preference order: a tie keeps the earlier one (the first is the plain default). */
+/**
+ * Candidates in preference order: a tie keeps the earlier one (the first is the plain default).
+ * Word clusters (config.clusters) are not a candidate: learned from the training text alone, as
+ * here, 50 clusters scored 5-fold CV F1 0.5493 against 0.5508 without on wikigold train+dev,
+ * 0.4009 against 0.4022 lower-cased and 0.4207 against 0.4249 on the noisy proxy
+ * (bench/clusters.ts); they help only with unlabelled text (`--clusters N --unlabelled FILE`).
+ */
 export const SELECTION_CANDIDATES: readonly SelectionCandidate[] = [
   { name: "first-order", config: {} },
   // θ = 1 and suffixes up to 10 letters (Brants's length) scored 0.9281 against 0.9261 for the

@@ -62,6 +62,8 @@ export type SerializedStatistics = {
 
 function resolve(config: Partial<TrainingConfig>): TrainingConfig {
   if (config.nltkCompatible === true) throw new RangeError("sharded training does not support the NLTK-compatible configuration");
+  // Clustering needs the bigrams of the whole text at once, which shards do not share.
+  if (config.clusters !== undefined && config.clusters > 0) throw new RangeError("sharded training does not support word clusters (clusters must be 0)");
   return resolveTrainingConfig(config);
 }
 

@@ -68,6 +68,12 @@ export type TrainingConfig = {
    * as an input of the sigmoid (chosen by nested CV); `none` keeps the raw chunk marginals.
    */
   readonly calibration: "platt" | "platt-length" | "none";
+  /**
+   * Word clusters learned from the training text plus any unlabelled text (Brown et al. 1992 with
+   * the window of Liang 2005, brown-clusters.ts) refine the emissions of unknown and rare words
+   * (cluster-emissions.ts); the number of clusters, 0 = off.
+   */
+  readonly clusters: number;
   /** Reproduce NLTK's supervised HMM exactly (see nltk-compatible.ts); ignores the options above it names. */
   readonly nltkCompatible: boolean;
 };
@@ -104,6 +110,7 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   // platt-length over platt and isotonic regression by nested 5-fold CV on wikigold train+dev
   // (pooled ECE over 5 article orders 0.0228 vs 0.0298 and 0.0255; bench/calibration.ts).
   calibration: "platt-length",
+  clusters: 0,
   nltkCompatible: false,
 };
 
@@ -145,6 +152,7 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (!["none", "em", "sample"].includes(config.semi)) throw new RangeError(`semi must be none, em or sample, got ${config.semi}`);
   if (!Number.isInteger(config.iterations) || config.iterations < 0) throw new RangeError(`iterations must be an integer ≥ 0, got ${config.iterations}`);
   if (config.calibration !== "platt" && config.calibration !== "platt-length" && config.calibration !== "none") throw new RangeError(`calibration must be platt, platt-length or none, got ${config.calibration}`);
+  if (!Number.isInteger(config.clusters) || config.clusters < 0) throw new RangeError(`clusters must be an integer ≥ 0, got ${config.clusters}`);
   if (!Number.isInteger(config.seed)) throw new RangeError(`seed must be an integer, got ${config.seed}`);
   checkPositionBuckets(config.positionBuckets);
 }

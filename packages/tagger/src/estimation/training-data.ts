@@ -8,6 +8,8 @@ import type { SufficientStatistics } from "./sufficient-statistics";
 import type { TrainingConfig } from "./training-config";
 import type { DataSummary } from "../model/tagger-model";
 import { buildVocabulary, suffixGroupOf, symbolCount, symbolOf, type Vocabulary } from "./vocabulary";
+import { learnBrownClusters } from "./brown-clusters";
+import { CLUSTER_THETA, createClusterCollector, type ClusterEmissions } from "./cluster-emissions";
 
 /** The labelled data mapped to ids, with everything counted from it. */
 export type PreparedTrainingData = {
@@ -17,6 +19,8 @@ export type PreparedTrainingData = {
   readonly corpus: EncodedCorpus;
   readonly statistics: SufficientStatistics;
   readonly suffix: SuffixStatistics | null;
+  /** Word clusters and their emission statistics when config.clusters > 0, else null. */
+  readonly clusters: ClusterEmissions | null;
   readonly summary: DataSummary;
 };
 
@@ -36,7 +40,12 @@ export function detectScheme(documents: readonly ColumnDocument[], requested: Tr
  * state seen first). Throws RangeError for an empty corpus or a sentence whose words and tags
  * differ in length.
  */
-export function prepareTrainingData(documents: readonly ColumnDocument[], config: TrainingConfig): PreparedTrainingData {
+export function prepareTrainingData(
+  documents: readonly ColumnDocument[],
+  config: TrainingConfig,
+  /** Unlabelled sentences that join the training text in the word clustering (config.clusters > 0). */
+  unlabelled: readonly (readonly string[])[] = [],
+): PreparedTrainingData {
   const scheme = detectScheme(documents, config.scheme);
   const sentences: { words: readonly string[]; tags: readonly string[]; index: number }[] = [];
   documents.forEach((doc, d) =>
@@ -67,6 +76,8 @@ export function prepareTrainingData(documents: readonly ColumnDocument[], config
   const sentenceIndex = new Int32Array(sentences.length);
   const suffixCollector = config.suffixLength > 0 ? createSuffixCollector(K, config.suffixLength) : null;
   const tagCounts = new Float64Array(K);
+  const clusterCollector =
+    config.clusters > 0 ? createClusterCollector(learnBrownClusters([...sentences.map((s) => s.words), ...unlabelled], { clusters: config.clusters }), K) : null;
   let n = 0;
   sentences.forEach((s, k) => {
     sentenceIndex[k] = s.index;
@@ -79,6 +90,7 @@ export function prepareTrainingData(documents: readonly ColumnDocument[], config
       if (suffixCollector !== null && wordCounts.get(word)! <= config.suffixMaxFrequency) {
         suffixCollector.add(word, suffixGroupOf(vocabulary, word, t === 0), tag);
       }
+      if (clusterCollector !== null && wordCounts.get(word)! <= config.suffixMaxFrequency) clusterCollector.add(word, suffixGroupOf(vocabulary, word, t === 0), tag);
     }
     sentenceStarts[k + 1] = n;
   });
@@ -110,6 +122,7 @@ export function prepareTrainingData(documents: readonly ColumnDocument[], config
     corpus,
     statistics,
     suffix: suffixCollector === null ? null : suffixCollector.finish(config.suffixTheta ?? suffixTheta(tagCounts)),
+    clusters: clusterCollector === null ? null : clusterCollector.finish(CLUSTER_THETA),
     summary,
   };
 }

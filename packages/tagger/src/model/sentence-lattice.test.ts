@@ -47,6 +47,28 @@ describe("buildSentenceLattice", () => {
     }
   });
 
+  it.each<[string, Partial<TrainingConfig>]>([
+    ["with suffixes", {}],
+    ["without suffixes, so unknown words of a class would share one row", { suffixLength: 0 }],
+  ])("gives words the clustering knows their own rows, equal to buildFirstOrderProblem's cell for cell (%s)", (_name, config) => {
+    // Unknown words of the held-out text are clustered from it as unlabelled text, so their rows
+    // carry the cluster ratio (cluster-emissions.ts) and must not be shared with their class's row.
+    const sentences = heldOut.slice(0, 40);
+    const { model } = trainTagger([...tinyDocuments, ...synthetic], { ...config, clusters: 16, calibration: "none" }, { unlabelled: [sentences] });
+    const { model: plain } = trainTagger([...tinyDocuments, ...synthetic], { ...config, calibration: "none" });
+    expect(model.clusters).not.toBeNull();
+    const K = model.tags.length;
+    let differing = 0;
+    for (const words of sentences) {
+      const { input } = buildFirstOrderProblem(model, words);
+      const lattice = buildSentenceLattice(model, words);
+      expect(Array.from(lattice.logEmissions.subarray(0, words.length * K))).toEqual(Array.from(input.scores));
+      const other = buildSentenceLattice(plain, words).logEmissions.subarray(0, words.length * K);
+      if (other.some((v, i) => v !== input.scores[i])) differing++;
+    }
+    expect(differing).toBeGreaterThan(0);
+  });
+
   it.each(configs)("tagSentence's fast path agrees with the log-space path (%s)", (_name, config) => {
     const { model } = trainTagger([...tinyDocuments, ...synthetic], { ...config, calibration: "none" });
     for (const words of heldOut.slice(0, 60)) {

@@ -3,6 +3,8 @@ import { addCount, createCountTable, findEntry, getCount, type CountTable } from
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
+import { clusterOf } from "../estimation/brown-clusters";
+import { addClusterLogRatio } from "../estimation/cluster-emissions";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
@@ -340,7 +342,9 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
     suffix = suffixRatioRow(cache.suffix, word, group);
   }
-  let row = suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
+  // A word the clustering knows adds its cluster's ratio (cluster-emissions.ts), so its row is its own.
+  const clustered = model.clusters !== null && symbol >= model.vocabulary.words.length && clusterOf(model.clusters.clusters, word) >= 0;
+  let row = clustered ? -1 : suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
   if (row < 0) {
     const W = 2 * K + 1;
     row = cache.rowCount++;
@@ -353,8 +357,10 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     if (suffix >= 0) {
       const ratios = cache.suffix!.rows;
       for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
-      setPair(cache.suffixRows, symbol, suffix, row);
-    } else cache.symbolRows[symbol] = row;
+    }
+    if (clustered) addClusterLogRatio(model.clusters, model.vocabulary, word, first, symbol, rows, out);
+    else if (suffix >= 0) setPair(cache.suffixRows, symbol, suffix, row);
+    else cache.symbolRows[symbol] = row;
     for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
   }
   insertWord(cache.words, word, first, row);

@@ -19,6 +19,7 @@ describe("serializeModel / loadModel", () => {
     ["bikel classes, no suffixes", { wordClasses: "bikel" as const, suffixLength: 0 }],
     ["extended classes", { wordClasses: "extended" as const }],
     ["informal classes", { wordClasses: "informal" as const }],
+    ["word clusters", { clusters: 4 }],
     ["NLTK-compatible", { nltkCompatible: true }],
   ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
     const { model } = trainTagger(tinyDocuments, config);
@@ -55,7 +56,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3 and 4/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3, 4 and 5/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -122,7 +123,7 @@ describe("schema version 4", () => {
     const { model } = trainTagger(documents, { calibration: "platt-length" });
     expect(model.calibration).not.toBeNull();
     const json = serializeModel(model);
-    expect(json.schemaVersion).toBe(4);
+    expect(json.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
     expect(json.calibration?.c).toBe(model.calibration!.c);
     const loaded = loadModel(JSON.parse(JSON.stringify(json)));
     for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
@@ -139,5 +140,54 @@ describe("schema version 4", () => {
     const loaded = loadModel(v3);
     expect(loaded.calibration).toEqual({ method: "platt", a: model.calibration!.a, b: model.calibration!.b, c: 0 });
     for (const words of probe) expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+  });
+});
+
+describe("schema version 5", () => {
+  const documents = [...tinyDocuments, ...tinyDocuments, ...tinyDocuments];
+  const probe = [...documents.flatMap((d) => d.sentences.map((s) => s.words)), ...tinyUnlabelled.flat()];
+
+  it("stores the word clusters and their prefix statistics and reads them back to the same tags and scores", () => {
+    const { model } = trainTagger(documents, { clusters: 5 }, { unlabelled: tinyUnlabelled });
+    const json = serializeModel(model);
+    expect(json.schemaVersion).toBe(5);
+    const stored = json.parameters.clusters!;
+    // Unlabelled words are clustered too, each into one of the 5 clusters.
+    expect(stored.words).toContain("Tirranel");
+    expect(new Set(stored.cluster).size).toBe(5);
+    expect(stored.paths).toHaveLength(5);
+    const loaded = loadModel(JSON.parse(JSON.stringify(json)));
+    for (const words of probe) {
+      expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+      expect(sentenceLogLikelihood(loaded, words)).toBe(sentenceLogLikelihood(model, words));
+    }
+    // The clusters change the scores of unknown words that the clustering saw.
+    const { model: plain } = trainTagger(documents, {});
+    expect(sentenceLogLikelihood(model, tinyUnlabelled[0][0])).not.toBe(sentenceLogLikelihood(plain, tinyUnlabelled[0][0]));
+  });
+
+  it("a version-4 file (no clusters field, no clusters option) loads with clusters off and tags identically", () => {
+    const { model } = trainTagger(documents, {});
+    const v4 = JSON.parse(JSON.stringify({ ...serializeModel(model), schemaVersion: 4 }));
+    delete v4.parameters.clusters;
+    delete v4.config.clusters;
+    const loaded = loadModel(v4);
+    expect(loaded.clusters).toBeNull();
+    expect(loaded.config.clusters).toBe(0);
+    for (const words of probe) {
+      expect(tagSentence(loaded, words)).toEqual(tagSentence(model, words));
+      expect(sentenceLogLikelihood(loaded, words)).toBe(sentenceLogLikelihood(model, words));
+    }
+  });
+
+  it("refuses clusters that disagree with the config or are damaged", () => {
+    const json = serializeModel(trainTagger(documents, { clusters: 3 }).model);
+    expect(() => loadModel({ ...json, config: { ...json.config, clusters: 0 } })).toThrow(/parameters.clusters: present exactly when config.clusters is above 0/);
+    const damaged = JSON.parse(JSON.stringify(json));
+    damaged.parameters.clusters.cluster[0] = 7;
+    expect(() => loadModel(damaged)).toThrow(/parameters.clusters: word clusters: cluster 7 of word 0 outside 3 clusters/);
+    const missing = JSON.parse(JSON.stringify(json));
+    delete missing.parameters.clusters;
+    expect(() => loadModel(missing)).toThrow(/parameters.clusters: expected an object/);
   });
 });

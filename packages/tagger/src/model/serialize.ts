@@ -5,16 +5,19 @@ import { assembleModel, type DataSummary, type TaggerModel } from "./tagger-mode
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
 import { createVocabulary, symbolCount } from "../estimation/vocabulary";
 import type { PlattCalibration } from "../estimation/platt";
+import { createWordClusters } from "../estimation/brown-clusters";
+import { createClusterEmissions, type ClusterEmissions } from "../estimation/cluster-emissions";
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 4;
+export const MODEL_SCHEMA_VERSION = 5;
 /**
  * Versions this release reads: version 1 had no calibration (raw chunk marginals); version 2
  * could not name the `informal` word classes (version 3); version 3's calibration had no span
- * length coefficient `c` (version 4; an older file reads with c = 0, i.e. as before).
+ * length coefficient `c` (version 4; an older file reads with c = 0, i.e. as before); versions
+ * 1–4 had no word clusters (version 5; an older file reads with clusters off, i.e. as before).
  */
-const READABLE_VERSIONS = [1, 2, 3, 4];
+const READABLE_VERSIONS = [1, 2, 3, 4, 5];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -50,6 +53,12 @@ export type SerializedModel = {
     trigrams: Array<[number, number]> | null;
     contextEmissions: Array<[number, number]> | null;
     suffix: { maxLength: number; theta: number; nodes: Array<[string, number[], number[]]> } | null;
+    /**
+     * Word clusters (version 5): clustered words, each word's cluster, each cluster's bit string,
+     * and the tag counts of the bit-string prefixes per word class (nodes as in `suffix`, keyed by
+     * the reversed prefix).
+     */
+    clusters: { words: string[]; cluster: number[]; paths: string[]; maxLength: number; theta: number; nodes: Array<[string, number[], number[]]> } | null;
     /** Informational: values estimated from the counts (recomputed on load). */
     derived: { trigramLambdas: number[] | null };
   };
@@ -103,8 +112,20 @@ export function serializeModel(model: TaggerModel): SerializedModel {
       trigrams: mapEntries(s.trigrams),
       contextEmissions: mapEntries(s.contextEmissions),
       suffix: model.suffix === null ? null : { maxLength: model.suffix.maxLength, theta: model.suffix.theta, nodes: suffixNodesToJson(model.suffix) },
+      clusters: model.clusters === null ? null : clustersToJson(model.clusters),
       derived: { trigramLambdas: model.parameters.trigram === null ? null : [...model.parameters.trigram.lambdas] },
     },
+  };
+}
+
+function clustersToJson(c: ClusterEmissions): NonNullable<SerializedModel["parameters"]["clusters"]> {
+  return {
+    words: [...c.clusters.words],
+    cluster: Array.from(c.clusters.cluster),
+    paths: [...c.clusters.paths],
+    maxLength: c.statistics.maxLength,
+    theta: c.statistics.theta,
+    nodes: suffixNodesToJson(c.statistics),
   };
 }
 
@@ -194,8 +215,9 @@ export function loadModel(json: unknown): TaggerModel {
   let config: TrainingConfig;
   try {
     const stored = object(root.config, "config") as Partial<TrainingConfig>;
-    // Version 1 predates calibration: such a model was trained without it.
-    config = resolveTrainingConfig(version === 1 ? { ...stored, calibration: "none" } : stored);
+    // Version 1 predates calibration and versions 1–4 clusters: such a model was trained without them.
+    const older = version < 5 ? { ...stored, clusters: 0 } : stored;
+    config = resolveTrainingConfig(version === 1 ? { ...older, calibration: "none" } : older);
   } catch (error) {
     throw new ModelFormatError("config", (error as Error).message);
   }
@@ -239,25 +261,23 @@ export function loadModel(json: unknown): TaggerModel {
   if ((stats.trigrams !== null) !== (config.order === 2)) throw new ModelFormatError("parameters.trigrams", "present exactly when config.order is 2");
   if ((stats.contextEmissions !== null) !== config.contextEmissions) throw new ModelFormatError("parameters.contextEmissions", "present exactly when config.contextEmissions is on");
 
-  let suffix = null;
-  if (p.suffix !== null && p.suffix !== undefined) {
-    const sj = object(p.suffix, "parameters.suffix");
-    const nodes = array(sj.nodes, "parameters.suffix.nodes").map((entry, n): [string, SuffixNode] => {
-      const path = `parameters.suffix.nodes[${n}]`;
-      const triple = array(entry, path);
-      if (typeof triple[0] !== "string") throw new ModelFormatError(`${path}[0]`, "expected a string key");
-      const nodeTags = array(triple[1], `${path}[1]`).map((x, i) => {
-        const k = integer(x, `${path}[1][${i}]`);
-        if (k >= K) throw new ModelFormatError(`${path}[1][${i}]`, `tag ${k} outside K=${K}`);
-        return k;
-      });
-      const nodeCounts = array(triple[2], `${path}[2]`).map((x, i) => finite(x, `${path}[2][${i}]`));
-      if (nodeTags.length !== nodeCounts.length) throw new ModelFormatError(path, "tags and counts differ in length");
-      const counts = Float64Array.from(nodeCounts);
-      return [triple[0], { tags: Int32Array.from(nodeTags), counts, total: counts.reduce((a, b) => a + b, 0) }];
-    });
-    suffix = createSuffixStatistics(K, integer(sj.maxLength, "parameters.suffix.maxLength"), finite(sj.theta, "parameters.suffix.theta"), nodes);
+  const suffix = p.suffix === null || p.suffix === undefined ? null : readSuffixStatistics(p.suffix, "parameters.suffix", K);
+  let clusters: ClusterEmissions | null = null;
+  if (version >= 5 && p.clusters !== null) {
+    const cj = object(p.clusters, "parameters.clusters");
+    let wordClusters;
+    try {
+      wordClusters = createWordClusters(
+        strings(cj.words, "parameters.clusters.words"),
+        Int32Array.from(array(cj.cluster, "parameters.clusters.cluster"), (x, i) => integer(x, `parameters.clusters.cluster[${i}]`)),
+        strings(cj.paths, "parameters.clusters.paths"),
+      );
+    } catch (error) {
+      throw new ModelFormatError("parameters.clusters", (error as Error).message);
+    }
+    clusters = createClusterEmissions(wordClusters, readSuffixStatistics(cj, "parameters.clusters", K));
   }
+  if ((clusters !== null) !== (config.clusters > 0)) throw new ModelFormatError("parameters.clusters", "present exactly when config.clusters is above 0");
   const summary = object(root.summary, "summary") as unknown as DataSummary;
   let calibration: PlattCalibration | null = null;
   if (version >= 2 && root.calibration !== null) {
@@ -265,5 +285,25 @@ export function loadModel(json: unknown): TaggerModel {
     if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
     calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b"), c: version >= 4 ? finite(c.c, "calibration.c") : 0 };
   }
-  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration });
+  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters });
+}
+
+/** Suffix-model statistics stored as {maxLength, theta, nodes} (the suffix table and the cluster prefixes). */
+function readSuffixStatistics(value: unknown, at: string, K: number) {
+  const sj = object(value, at);
+  const nodes = array(sj.nodes, `${at}.nodes`).map((entry, n): [string, SuffixNode] => {
+    const path = `${at}.nodes[${n}]`;
+    const triple = array(entry, path);
+    if (typeof triple[0] !== "string") throw new ModelFormatError(`${path}[0]`, "expected a string key");
+    const nodeTags = array(triple[1], `${path}[1]`).map((x, i) => {
+      const k = integer(x, `${path}[1][${i}]`);
+      if (k >= K) throw new ModelFormatError(`${path}[1][${i}]`, `tag ${k} outside K=${K}`);
+      return k;
+    });
+    const nodeCounts = array(triple[2], `${path}[2]`).map((x, i) => finite(x, `${path}[2][${i}]`));
+    if (nodeTags.length !== nodeCounts.length) throw new ModelFormatError(path, "tags and counts differ in length");
+    const counts = Float64Array.from(nodeCounts);
+    return [triple[0], { tags: Int32Array.from(nodeTags), counts, total: counts.reduce((a, b) => a + b, 0) }];
+  });
+  return createSuffixStatistics(K, integer(sj.maxLength, `${at}.maxLength`), finite(sj.theta, `${at}.theta`), nodes);
 }

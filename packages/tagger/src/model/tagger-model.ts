@@ -8,6 +8,7 @@ import type { SufficientStatistics } from "../estimation/sufficient-statistics";
 import type { TrainingConfig } from "../estimation/training-config";
 import type { PlattCalibration } from "../estimation/platt";
 import { symbolCount, type Vocabulary } from "../estimation/vocabulary";
+import type { ClusterEmissions } from "../estimation/cluster-emissions";
 
 /** What the model was trained on (stored with it). */
 export type DataSummary = {
@@ -43,6 +44,8 @@ export type TaggerModel = {
   readonly segmentStarts: Uint8Array | null;
   /** Map from raw chunk marginals to calibrated span confidences, or null (raw marginals). */
   readonly calibration: PlattCalibration | null;
+  /** Word clusters for unknown and rare words (config.clusters > 0), else null. */
+  readonly clusters: ClusterEmissions | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -75,6 +78,7 @@ export function assembleModel(parts: {
   suffix: SuffixStatistics | null;
   summary: DataSummary;
   calibration?: PlattCalibration | null;
+  clusters?: ClusterEmissions | null;
 }): TaggerModel {
   const { config, tags, vocabulary, statistics } = parts;
   if (statistics.states !== tags.length) throw new RangeError(`statistics have K=${statistics.states} states for ${tags.length} tags`);
@@ -94,5 +98,5 @@ export function assembleModel(parts: {
   });
   const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
   const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
-  return { ...parts, calibration: parts.calibration ?? null, parameters, constraints, nltk, segmentStarts };
+  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, parameters, constraints, nltk, segmentStarts };
 }

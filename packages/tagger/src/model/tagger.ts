@@ -40,7 +40,7 @@ export function trainTagger(
   options: TrainOptions = {},
 ): { model: TaggerModel; history: IterationReport[] } {
   const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
-  const data = prepareTrainingData(documents, resolved);
+  const data = prepareTrainingData(documents, resolved, resolved.clusters > 0 ? (options.unlabelled ?? []).flat() : []);
   const calibration = resolved.calibration !== "none" && data.scheme === "iob" && !resolved.nltkCompatible ? fitSpanCalibration(documents, resolved) : null;
   const model = assembleModel({
     calibration,
@@ -51,6 +51,7 @@ export function trainTagger(
     statistics: data.statistics,
     suffix: data.suffix,
     summary: data.summary,
+    clusters: data.clusters,
   });
   const unlabelled = options.unlabelled ?? [];
   if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };

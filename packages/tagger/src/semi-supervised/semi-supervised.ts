@@ -169,6 +169,7 @@ export function refineWithUnlabelled(
       vocabulary: current.vocabulary,
       statistics: addStatistics(supervised, counts, options.weight),
       suffix: current.suffix,
+      clusters: current.clusters,
       summary: { ...current.summary, unlabelledDocuments: unlabelled.length, unlabelledSentences, unlabelledTokens },
     });
     const size = statisticsSize(counts, options.method === "em" ? "dense" : "sparse");
