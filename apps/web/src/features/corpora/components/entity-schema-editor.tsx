@@ -30,7 +30,6 @@ export function EntitySchemaEditor({ orgId, corpusId, canManage }: { orgId: stri
   const toast = useToast();
   const [editing, setEditing] = useState<EntityType | null>(null);
   const [deleting, setDeleting] = useState<EntityType | null>(null);
-  const [formKey, setFormKey] = useState(0);
 
   if (types.isPending) return <Skeleton />;
   if (types.isError) return <Notice tone="error">{types.error.message}</Notice>;
@@ -90,14 +89,15 @@ export function EntitySchemaEditor({ orgId, corpusId, canManage }: { orgId: stri
         <Card>
           <h2 className="mb-3 font-semibold text-ink-900">Add an entity type</h2>
           <EntityTypeForm
-            key={`new-${formKey}-${list.length}`}
+            // A fresh form in the same render as the list that shows the new type, so nothing typed
+            // after the type appears is wiped by a later reset.
+            key={`new-${list.length}`}
             initial={{ color: nextEntityTypeColor(list.map((t) => t.color)) }}
             submitLabel="Add type"
             busy={create.isPending}
             onSubmit={async (values) => {
               const created = await create.mutateAsync(values);
               toast.show(`${created.name} added.`, "success");
-              setFormKey((k) => k + 1);
             }}
           />
         </Card>

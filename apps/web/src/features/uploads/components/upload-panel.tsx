@@ -31,7 +31,10 @@ export function UploadPanel({ orgId, corpusId, disabledReason }: { orgId: string
 
   const add = (files: FileList | null) => {
     if (!files?.length) return;
-    setChosen((prev) => [...prev, ...Array.from(files)]);
+    // Copied now: the input's FileList is emptied in place when its value is reset below, and
+    // React may run the updater later (when the panel already has an update pending).
+    const picked = Array.from(files);
+    setChosen((prev) => [...prev, ...picked]);
   };
   const onDrop = (e: DragEvent<HTMLDivElement>) => {
     e.preventDefault();
