@@ -4,7 +4,7 @@ import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixLogRatio } from "../estimation/suffix-model";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
-import { addClusterLogRatio } from "../estimation/cluster-emissions";
+import { addEmissionAdjustments } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import type { TaggerModel } from "./tagger-model";
 
@@ -310,7 +310,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     suffixLogRatio(model.suffix, word, group, cache.ratio, cache.scratch);
     for (let k = 0; k < K; k++) cache.wordLog[out + k] += cache.ratio[k];
   }
-  addClusterLogRatio(model.clusters, model.vocabulary, word, first, symbol, cache.wordLog, out);
+  addEmissionAdjustments(model, word, first, symbol, cache.wordLog, out);
   for (let k = 0; k < K; k++) cache.wordExp[out + k] = Math.exp(cache.wordLog[out + k]);
   map.set(word, entry);
   return entry;
