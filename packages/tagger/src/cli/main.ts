@@ -49,6 +49,8 @@ training options:
   --clusters N                   N word clusters learned from the training text and any --unlabelled
                                  FILE (tokens one per line, blank line between sentences) refine
                                  unknown and rare words (0 = off, the default)
+  --perceptron N                 N passes of the averaged perceptron adding weights to the
+                                 emission scores (0 = off, the default; order 1 only)
   --calibration platt-length|platt|none  span confidences calibrated on 5-fold CV of the training data (default platt-length: Platt with ln span length)
   --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)
   --select cv|off                choose first-order or trigram by 3-fold CV of the training data
@@ -83,6 +85,7 @@ const OPTIONS = {
   seed: { type: "string" },
   calibration: { type: "string" },
   clusters: { type: "string" },
+  perceptron: { type: "string" },
   beam: { type: "string" },
   "nltk-compatible": { type: "boolean" },
   select: { type: "string" },
@@ -174,6 +177,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values.beam !== undefined) config.beam = number("beam", values.beam, (n) => n >= 1, "a number ≥ 1");
   if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "platt-length", "none"] as const);
   if (values.clusters !== undefined) config.clusters = number("clusters", values.clusters, (n) => Number.isInteger(n) && n >= 0 && n <= MAX_CLUSTERS, `an integer from 0 to ${MAX_CLUSTERS}`);
+  if (values.perceptron !== undefined) config.perceptron = number("perceptron", values.perceptron, (n) => Number.isInteger(n) && n >= 0 && n <= 100, "an integer from 0 to 100");
   if (values["nltk-compatible"] === true) config.nltkCompatible = true;
   if (config.semi !== undefined && (values.unlabelled ?? []).length === 0) throw new UsageError("--semi needs --unlabelled FILE");
   if ((values.unlabelled ?? []).length > 0 && config.semi === undefined && !(config.clusters !== undefined && config.clusters > 0)) {

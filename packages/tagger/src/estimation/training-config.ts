@@ -74,6 +74,11 @@ export type TrainingConfig = {
    * (cluster-emissions.ts); the number of clusters, 0 = off.
    */
   readonly clusters: number;
+  /**
+   * Passes of the averaged perceptron (Collins 2002) that add discriminative weights to the
+   * emission scores of the count model (perceptron.ts); 0 = off.
+   */
+  readonly perceptron: number;
   /** Reproduce NLTK's supervised HMM exactly (see nltk-compatible.ts); ignores the options above it names. */
   readonly nltkCompatible: boolean;
 };
@@ -111,6 +116,7 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   // (pooled ECE over 5 article orders 0.0228 vs 0.0298 and 0.0255; bench/calibration.ts).
   calibration: "platt-length",
   clusters: 0,
+  perceptron: 0,
   nltkCompatible: false,
 };
 
@@ -153,6 +159,8 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (!Number.isInteger(config.iterations) || config.iterations < 0) throw new RangeError(`iterations must be an integer ≥ 0, got ${config.iterations}`);
   if (config.calibration !== "platt" && config.calibration !== "platt-length" && config.calibration !== "none") throw new RangeError(`calibration must be platt, platt-length or none, got ${config.calibration}`);
   if (!Number.isInteger(config.clusters) || config.clusters < 0) throw new RangeError(`clusters must be an integer ≥ 0, got ${config.clusters}`);
+  if (!Number.isInteger(config.perceptron) || config.perceptron < 0) throw new RangeError(`perceptron must be an integer ≥ 0, got ${config.perceptron}`);
+  if (config.perceptron > 0 && config.order !== 1) throw new RangeError("perceptron needs order 1");
   if (!Number.isInteger(config.seed)) throw new RangeError(`seed must be an integer, got ${config.seed}`);
   checkPositionBuckets(config.positionBuckets);
 }

@@ -8,7 +8,7 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixLogRatio } from "../estimation/suffix-model";
 import type { TaggerModel } from "./tagger-model";
 import { encodeWords, suffixGroupOf } from "../estimation/vocabulary";
-import { addClusterLogRatio } from "../estimation/cluster-emissions";
+import { addEmissionAdjustments } from "../estimation/emission-adjustments";
 
 /**
  * Symbols and the T×K emission lattice of a sentence. A known word reads its row of the emission
@@ -35,7 +35,7 @@ export function buildEmissionLattice(model: TaggerModel, words: readonly string[
       suffixLogRatio(model.suffix, words[t], suffixGroupOf(model.vocabulary, words[t], t === 0), ratio, scratch);
       for (let k = 0; k < K; k++) lattice[out + k] += ratio[k];
     }
-    addClusterLogRatio(model.clusters, model.vocabulary, words[t], t === 0, s, lattice, out);
+    addEmissionAdjustments(model, words[t], t === 0, s, lattice, out);
   }
   return { symbols, lattice };
 }

@@ -23,6 +23,7 @@ const configs: [string, Partial<TrainingConfig>][] = [
   ["no previous-word transitions", { prevWord: false }],
   ["neither", { prevWord: false, contextEmissions: false }],
   ["no suffixes, no end state, unconstrained", { suffixLength: 0, endState: false, constrainIob: false }],
+  ["perceptron weights on the emissions", { perceptron: 2 }],
 ];
 
 const synthetic = createSyntheticDocuments(6000, 400, 5);

@@ -4,7 +4,7 @@ import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { clusterOf } from "../estimation/brown-clusters";
-import { addClusterLogRatio } from "../estimation/cluster-emissions";
+import { addEmissionAdjustments } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
@@ -358,9 +358,12 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
       const ratios = cache.suffix!.rows;
       for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
     }
-    if (clustered) addClusterLogRatio(model.clusters, model.vocabulary, word, first, symbol, rows, out);
-    else if (suffix >= 0) setPair(cache.suffixRows, symbol, suffix, row);
-    else cache.symbolRows[symbol] = row;
+    // The perceptron's weights depend on the symbol only, so rows stay shared with them.
+    addEmissionAdjustments(model, word, first, symbol, rows, out);
+    if (!clustered) {
+      if (suffix >= 0) setPair(cache.suffixRows, symbol, suffix, row);
+      else cache.symbolRows[symbol] = row;
+    }
     for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
   }
   insertWord(cache.words, word, first, row);

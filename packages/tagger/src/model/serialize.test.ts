@@ -20,6 +20,7 @@ describe("serializeModel / loadModel", () => {
     ["extended classes", { wordClasses: "extended" as const }],
     ["informal classes", { wordClasses: "informal" as const }],
     ["word clusters", { clusters: 4 }],
+    ["perceptron", { perceptron: 2 }],
     ["NLTK-compatible", { nltkCompatible: true }],
   ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
     const { model } = trainTagger(tinyDocuments, config);

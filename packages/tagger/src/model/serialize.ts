@@ -59,6 +59,8 @@ export type SerializedModel = {
      * the reversed prefix).
      */
     clusters: { words: string[]; cluster: number[]; paths: string[]; maxLength: number; theta: number; nodes: Array<[string, number[], number[]]> } | null;
+    /** Perceptron weights added to the emission scores, S×K symbol-major (version 5; absent = none). */
+    corrections?: SparseArray | null;
     /** Informational: values estimated from the counts (recomputed on load). */
     derived: { trigramLambdas: number[] | null };
   };
@@ -113,6 +115,7 @@ export function serializeModel(model: TaggerModel): SerializedModel {
       contextEmissions: mapEntries(s.contextEmissions),
       suffix: model.suffix === null ? null : { maxLength: model.suffix.maxLength, theta: model.suffix.theta, nodes: suffixNodesToJson(model.suffix) },
       clusters: model.clusters === null ? null : clustersToJson(model.clusters),
+      corrections: model.corrections === null ? null : toSparse(model.corrections),
       derived: { trigramLambdas: model.parameters.trigram === null ? null : [...model.parameters.trigram.lambdas] },
     },
   };
@@ -216,7 +219,7 @@ export function loadModel(json: unknown): TaggerModel {
   try {
     const stored = object(root.config, "config") as Partial<TrainingConfig>;
     // Version 1 predates calibration and versions 1–4 clusters: such a model was trained without them.
-    const older = version < 5 ? { ...stored, clusters: 0 } : stored;
+    const older = version < 5 ? { ...stored, clusters: 0, perceptron: 0 } : stored;
     config = resolveTrainingConfig(version === 1 ? { ...older, calibration: "none" } : older);
   } catch (error) {
     throw new ModelFormatError("config", (error as Error).message);
@@ -277,6 +280,8 @@ export function loadModel(json: unknown): TaggerModel {
     }
     clusters = createClusterEmissions(wordClusters, readSuffixStatistics(cj, "parameters.clusters", K));
   }
+  const corrections = version >= 5 && p.corrections !== undefined && p.corrections !== null ? fromSparse(p.corrections, S * K, "parameters.corrections") : null;
+  if ((corrections !== null) !== (config.perceptron > 0 && !config.nltkCompatible)) throw new ModelFormatError("parameters.corrections", "present exactly when config.perceptron is above 0");
   if ((clusters !== null) !== (config.clusters > 0)) throw new ModelFormatError("parameters.clusters", "present exactly when config.clusters is above 0");
   const summary = object(root.summary, "summary") as unknown as DataSummary;
   let calibration: PlattCalibration | null = null;
@@ -285,7 +290,7 @@ export function loadModel(json: unknown): TaggerModel {
     if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
     calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b"), c: version >= 4 ? finite(c.c, "calibration.c") : 0 };
   }
-  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters });
+  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters, corrections });
 }
 
 /** Suffix-model statistics stored as {maxLength, theta, nodes} (the suffix table and the cluster prefixes). */

@@ -46,6 +46,8 @@ export type TaggerModel = {
   readonly calibration: PlattCalibration | null;
   /** Word clusters for unknown and rare words (config.clusters > 0), else null. */
   readonly clusters: ClusterEmissions | null;
+  /** S×K perceptron weights added to the emission scores (config.perceptron > 0), else null. */
+  readonly corrections: Float64Array | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -79,6 +81,7 @@ export function assembleModel(parts: {
   summary: DataSummary;
   calibration?: PlattCalibration | null;
   clusters?: ClusterEmissions | null;
+  corrections?: Float64Array | null;
 }): TaggerModel {
   const { config, tags, vocabulary, statistics } = parts;
   if (statistics.states !== tags.length) throw new RangeError(`statistics have K=${statistics.states} states for ${tags.length} tags`);
@@ -98,5 +101,5 @@ export function assembleModel(parts: {
   });
   const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
   const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
-  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, parameters, constraints, nltk, segmentStarts };
+  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, corrections: parts.corrections ?? null, parameters, constraints, nltk, segmentStarts };
 }

@@ -15,6 +15,7 @@ import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
 import { applyPlatt, fitPlatt, type PlattCalibration } from "../estimation/platt";
 import { planFolds } from "../evaluation/folds";
+import { trainEmissionCorrections } from "../estimation/perceptron";
 
 /** Options of {@link trainTagger} that are not part of the model's configuration. */
 export type TrainOptions = {
@@ -42,7 +43,7 @@ export function trainTagger(
   const resolved = config.nltkCompatible === true ? nltkCompatibleConfig(config.smoothing?.emission ?? 0.1) : resolveTrainingConfig(config);
   const data = prepareTrainingData(documents, resolved, resolved.clusters > 0 ? (options.unlabelled ?? []).flat() : []);
   const calibration = resolved.calibration !== "none" && data.scheme === "iob" && !resolved.nltkCompatible ? fitSpanCalibration(documents, resolved) : null;
-  const model = assembleModel({
+  const parts = {
     calibration,
     config: resolved,
     scheme: data.scheme,
@@ -52,7 +53,13 @@ export function trainTagger(
     suffix: data.suffix,
     summary: data.summary,
     clusters: data.clusters,
-  });
+  };
+  const counted = assembleModel(parts);
+  const model =
+    resolved.perceptron > 0 && !resolved.nltkCompatible ? assembleModel({
+          ...parts,
+          corrections: trainEmissionCorrections(counted, documents, resolved.perceptron, (others) => trainTagger(others, { ...resolved, perceptron: 0, calibration: "none", semi: "none" }).model),
+        }) : counted;
   const unlabelled = options.unlabelled ?? [];
   if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };
   return refineWithUnlabelled(model, data.statistics, unlabelled, {

@@ -170,6 +170,7 @@ export function refineWithUnlabelled(
       statistics: addStatistics(supervised, counts, options.weight),
       suffix: current.suffix,
       clusters: current.clusters,
+      corrections: current.corrections,
       summary: { ...current.summary, unlabelledDocuments: unlabelled.length, unlabelledSentences, unlabelledTokens },
     });
     const size = statisticsSize(counts, options.method === "em" ? "dense" : "sparse");
