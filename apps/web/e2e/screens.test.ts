@@ -239,7 +239,7 @@ describe("the details people rely on", () => {
   });
 });
 
-describe("agreement on a phone", () => {
+describe("on a phone", () => {
   it("a batch with two annotators per document: the agreement table and chart fit 390 px, with no serious axe finding", async () => {
     const [ines, jory] = team.annotators;
     const docId = team.documents["Ferry notes"]!;
@@ -272,5 +272,18 @@ describe("agreement on a phone", () => {
       expect(await seriousViolations(page), `batch at ${width} px: axe`).toEqual([]);
       expect(messages).toEqual([]);
     }
+  });
+
+  it("the workspace's text box is as tall as a short text, and a long one scrolls inside 70 % of the screen", async () => {
+    const [ines] = team.annotators;
+    const { page, messages } = await openAt(390, ines);
+    await page.goto(corpus(`/assignments/${assignmentId}`));
+    const box = page.getByTestId("document-text");
+    await box.waitFor();
+    const { height } = (await box.boundingBox())!;
+    // A two-sentence document takes a few lines at 390 px; the box was 70 % of the screen whatever the text.
+    expect(height).toBeLessThan(860 * 0.4);
+    expect(await box.evaluate((el) => getComputedStyle(el).maxHeight)).toBe(`${860 * 0.7}px`);
+    expect(messages).toEqual([]);
   });
 });
