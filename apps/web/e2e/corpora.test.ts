@@ -92,10 +92,15 @@ describe("corpora, uploads and exports in the browser", () => {
     await results.getByText(/latin1\.txt is not valid UTF-8: the bytes at offset 3 \(0xE9\)/).waitFor();
     await results.getByText(/bad\.jsonl has 1 problem on 1 line, first on line 3: spans\[0\] \[0, 99\) is outside the text/).waitFor();
     await results.getByText(/locked\.pdf is encrypted with a password/).waitFor();
-    // The Files list shows the same states.
-    await page.getByRole("tab", { name: /Refused \(3\)/ }).waitFor();
+    // The Files list and the corpus header say the same at that very moment (read without waiting:
+    // they refresh together with the results).
+    expect(await page.getByRole("tab", { name: /^Imported/ }).textContent()).toBe("Imported (5)");
+    expect(await page.getByRole("tab", { name: /^Refused/ }).textContent()).toBe("Refused (3)");
+    const counts = (await page.getByTestId("corpus-counts").textContent()) ?? "";
+    expect(counts).toMatch(/^6 documents/);
+    expect(counts).not.toMatch(/being read/);
 
-    // The Documents table: 7 documents (2 from gold.jsonl, 1 each from the others); find one by a word.
+    // The Documents table: 6 documents (2 from gold.jsonl, 1 each from the other imported files); find one by a word.
     await page.getByRole("navigation", { name: "Corpus" }).getByRole("link", { name: "Documents" }).click();
     const table = page.getByRole("table", { name: "Documents" });
     await table.getByRole("link", { name: "survey" }).waitFor();

@@ -238,3 +238,52 @@ describe("the details people rely on", () => {
     expect(m.messages).toEqual([]);
   });
 });
+
+describe("on a phone", () => {
+  it("a batch with two annotators per document: the agreement table and chart fit 390 px, with no serious axe finding", async () => {
+    const [ines, jory] = team.annotators;
+    const docId = team.documents["Ferry notes"]!;
+    const batch = await team.api.call<{ id: string }>("POST", `/orgs/${team.orgId}/corpora/${team.corpusId}/batches`, {
+      name: "Ferry overlap",
+      documentIds: [docId],
+      assignment: { mode: "round_robin", annotatorIds: [ines.userId, jory.userId], annotatorsPerDocument: 2 },
+    });
+    // Ines marks two names, Jory one of them and a third: they agree on one span.
+    const spans = { [ines.email]: [{ start: 0, end: 9, type: "PERSON" }, { start: 30, end: 39, type: "PLACE" }], [jory.email]: [{ start: 0, end: 9, type: "PERSON" }, { start: 43, end: 50, type: "PLACE" }] };
+    for (const person of [ines, jory]) {
+      const api = new ApiClient(session.baseUrl);
+      await api.call("POST", "/auth/sign-in", { email: person.email, password: person.password });
+      const queue = await api.call<{ items: Array<{ assignmentId: string; batchId: string }> }>("GET", `/orgs/${team.orgId}/queue`);
+      const id = queue.items.find((i) => i.batchId === batch.id)!.assignmentId;
+      const base = `/orgs/${team.orgId}/corpora/${team.corpusId}/assignments/${id}`;
+      const opened = await api.call<{ version: number }>("GET", base);
+      const saved = await api.call<{ version: number }>("PUT", base, { version: opened.version, spans: spans[person.email], dismissedSuggestions: [] });
+      await api.call("POST", `${base}/submit`, { version: saved.version });
+    }
+    for (const width of WIDTHS) {
+      const { page, messages } = await openAt(width, team.manager);
+      await page.goto(corpus(`/batches/${batch.id}`));
+      await page.getByRole("table", { name: "Agreement per pair of annotators" }).getByRole("row", { name: /Ines Marrow & Jory Ashby/ }).waitFor();
+      await page.getByRole("img", { name: "Agreement per pair: entity F1 and kappa" }).locator(".recharts-bar-rectangle").first().waitFor();
+      await page.waitForLoadState("networkidle");
+      await page.screenshot({ path: path.join(shots, `manager-agreement-${width}.png`), fullPage: true });
+      const overflow = await horizontalOverflow(page);
+      expect(overflow.by, `batch at ${width} px scrolls sideways: ${overflow.culprits.join(" | ")}`).toBeLessThanOrEqual(0);
+      expect(await seriousViolations(page), `batch at ${width} px: axe`).toEqual([]);
+      expect(messages).toEqual([]);
+    }
+  });
+
+  it("the workspace's text box is as tall as a short text, and a long one scrolls inside 70 % of the screen", async () => {
+    const [ines] = team.annotators;
+    const { page, messages } = await openAt(390, ines);
+    await page.goto(corpus(`/assignments/${assignmentId}`));
+    const box = page.getByTestId("document-text");
+    await box.waitFor();
+    const { height } = (await box.boundingBox())!;
+    // A two-sentence document takes a few lines at 390 px; the box was 70 % of the screen whatever the text.
+    expect(height).toBeLessThan(860 * 0.4);
+    expect(await box.evaluate((el) => getComputedStyle(el).maxHeight)).toBe(`${860 * 0.7}px`);
+    expect(messages).toEqual([]);
+  });
+});

@@ -1,6 +1,6 @@
 import { type EntityType, type SuggestedSpan, annotationStatusLabels, can, countOf, splitLabels } from "@tagloom/contracts";
 import { useState } from "react";
-import { SpanMark, UNKNOWN_TYPE_COLOR, useSpanStyles } from "@/components/spans";
+import { SpanMark, UNKNOWN_TYPE_COLOR, excerptBounds, useSpanStyles } from "@/components/spans";
 import { Link, useNavigate, useParams } from "react-router";
 import { Button } from "@/components/ui/button";
 import { Notice, PageHeader, Skeleton } from "@/components/ui/card";
@@ -112,8 +112,7 @@ function SuggestionList({ text, suggestions, types }: { text: string; suggestion
   return (
     <ul className="divide-y divide-ink-50 rounded-lg border border-ink-100 bg-white text-sm" data-testid="document-suggestions">
       {suggestions.map((s, i) => {
-        const from = Math.max(0, s.start - 30);
-        const to = Math.min(text.length, s.end + 30);
+        const { from, to } = excerptBounds(text, s.start, s.end, 30);
         return (
           <li key={i} className="px-4 py-2 font-serif leading-[2.3] break-words text-ink-700">
             {from > 0 ? "…" : null}

@@ -1,5 +1,6 @@
 import { render, screen } from "@testing-library/react";
 import { describe, expect, it } from "vitest";
+import { SpanMark } from "./span-mark";
 import { SpanText } from "./span-text";
 import { typeCodes } from "./type-codes";
 
@@ -41,5 +42,28 @@ describe("SpanText", () => {
   it("shows only the asked stretch, with ellipses where it is cut", () => {
     const { container } = render(<SpanText text={text} spans={[{ start: 16, end: 26, type: "PERSON" }]} types={types} from={11} to={26} />);
     expect(container.textContent).toBe("…paid PERTobin Vale (PERSON)…");
+  });
+});
+
+describe("SpanMark line breaking", () => {
+  // A line may break after an inline box (CSS Text Level 3, §5.1: atomic inlines are break
+  // opportunities like U+FFFC); the code is one, so it travels with the span's first word.
+  it("keeps the code and the first word of the span in one unbreakable run, the rest outside it", () => {
+    const text = "The harbour master Sefa Lusk wrote.";
+    const { container } = render(<SpanText text={text} spans={[{ start: 19, end: 28, type: "PERSON" }]} types={[{ name: "PERSON", color: "#e69f00" }]} />);
+    const head = container.querySelector("mark .tl-span-head");
+    expect(head).not.toBeNull();
+    expect(head!.querySelector(".tl-span-code")).not.toBeNull();
+    expect(head!.textContent).toBe("PERSefa");
+    expect(container.querySelector("mark")!.textContent).toBe("PERSefa Lusk (PERSON)");
+  });
+
+  it("takes the first token element when the span is made of tokens", () => {
+    const { container } = render(
+      <SpanMark type="PERSON" code="PER" color="#e69f00">
+        {[<span key="a">Sefa</span>, <span key="g"> </span>, <span key="b">Lusk</span>]}
+      </SpanMark>,
+    );
+    expect(container.querySelector(".tl-span-head")!.textContent).toBe("PERSefa");
   });
 });

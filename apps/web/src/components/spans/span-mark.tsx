@@ -1,4 +1,4 @@
-import type { CSSProperties, HTMLAttributes, ReactNode } from "react";
+import { type CSSProperties, type HTMLAttributes, type ReactNode, Children } from "react";
 import { cn } from "@/lib/cn";
 
 /** Colour of a span whose type is not in the schema any more. */
@@ -20,6 +20,20 @@ type Props = Omit<HTMLAttributes<HTMLElement>, "children"> & {
 };
 
 /**
+ * The span's first word (of a string) or first child (of token elements), and the rest. The code
+ * is a zero-width box before the text, and a line may break after a box: kept with the first word
+ * in one unbreakable run, the code cannot end one line while its span starts the next.
+ */
+export function splitHead(children: ReactNode): [ReactNode, ReactNode] {
+  if (typeof children === "string") {
+    const m = /^\S*/.exec(children)![0];
+    return [m, children.slice(m.length)];
+  }
+  const all = Children.toArray(children);
+  return [all[0] ?? null, all.slice(1)];
+}
+
+/**
  * One entity span in Tagloom's look: the text stays as it is, a bracket in the type's colour runs
  * under it (a line with a short upright tick at each end), and the type's short code hangs from
  * the left tick on a second line, in ink so it reads on any colour. Suggestions draw the same
@@ -30,6 +44,7 @@ export function SpanMark({ type, code, color, suggestion, continued, note, class
   const pct = suggestion ? Math.round(suggestion.confidence * 100) : null;
   const label = suggestion ? `Suggestion: ${type}, ${pct}% confident` : `${type}${note ? ` (${note})` : ""}`;
   const Tag = suggestion ? "span" : "mark";
+  const [head, tail] = continued ? [null, children] : splitHead(children);
   return (
     <Tag
       {...rest}
@@ -39,14 +54,17 @@ export function SpanMark({ type, code, color, suggestion, continued, note, class
       style={{ ...style, "--span-color": color } as CSSProperties}
     >
       {continued ? null : (
-        <span aria-hidden className="tl-span-code">
-          <span>
-            {code}
-            {pct === null ? null : <span className="tl-span-pct"> {pct}%</span>}
+        <span className="tl-span-head">
+          <span aria-hidden className="tl-span-code">
+            <span>
+              {code}
+              {pct === null ? null : <span className="tl-span-pct"> {pct}%</span>}
+            </span>
           </span>
+          {head}
         </span>
       )}
-      {children}
+      {tail}
       <span className="sr-only"> ({label})</span>
     </Tag>
   );

@@ -151,7 +151,8 @@ export function Workspace({ orgId, view, backLink, afterSubmit }: Props) {
       <ConflictNotice store={store} saver={saver} />
       <StoreMessage store={store} />
       <div className="flex min-h-0 flex-1 flex-col gap-4 md:flex-row">
-        <div className="h-[70vh] min-h-80 min-w-0 md:h-auto md:flex-1">
+        {/* On a phone the text box is as tall as its text, up to 70 % of the screen (then it scrolls). */}
+        <div className="min-w-0 *:max-h-[70vh] *:min-h-40 md:h-auto md:flex-1 md:*:max-h-none md:*:min-h-0">
           <DocumentText
             ref={textRef}
             store={store}
