@@ -21,6 +21,8 @@ export const trainingConfigDefaults = {
   iterations: 5,
   weight: 0.1,
   seed: 1,
+  clusters: 0,
+  perceptron: 0,
   crossValidationFolds: 5 as number | null,
   testSplit: { kind: "corpus" } as TestSplit,
 };
@@ -71,10 +73,18 @@ export const trainingConfigInputSchema = z.strictObject({
   weight: z.number().finite("Enter a number.").min(0, "Use 0 or more.").max(10, "Use at most 10.").optional(),
   testSplit: testSplitSchema.optional(),
   seed: z.number().int("Use a whole number.").min(0, "Use 0 or more.").max(2_147_483_647, "Use at most 2147483647.").optional(),
+  /** Word clusters learnt from the training text and the corpus's documents without gold; 0 = off. */
+  clusters: z.number("Enter a number.").int("Use a whole number of clusters.").min(0, "Use 0 clusters (off) or more.").max(1000, "Use at most 1000 clusters.").optional(),
+  /** Averaged-perceptron passes over the training documents; 0 = off. */
+  perceptron: z.number("Enter a number.").int("Use a whole number of passes.").min(0, "Use 0 passes (off) or more.").max(20, "Use at most 20 passes.").optional(),
 }).superRefine((v, ctx) => {
   // The engine's EM and sampling are first-order only.
   if (v.order === 2 && v.semi !== undefined && v.semi !== "none") {
     ctx.addIssue({ code: "custom", path: ["semi"], message: "Learning from unlabelled documents needs model order 1." });
+  }
+  // So is its perceptron (it reweighs first-order emission scores).
+  if (v.order === 2 && v.perceptron !== undefined && v.perceptron > 0) {
+    ctx.addIssue({ code: "custom", path: ["perceptron"], message: "Perceptron passes need model order 1." });
   }
 });
 export type TrainingConfigInput = z.infer<typeof trainingConfigInputSchema>;
@@ -165,7 +175,18 @@ export const evaluationSchema = z.object({
 });
 export type Evaluation = z.infer<typeof evaluationSchema>;
 
-export const documentCountsSchema = z.object({ train: z.number().int(), test: z.number().int(), unlabelled: z.number().int() });
+export const documentCountsSchema = z.object({
+  train: z.number().int(),
+  test: z.number().int(),
+  unlabelled: z.number().int(),
+  /**
+   * Documents without gold a run did not read because those it read already reached the
+   * service's token limit for them; absent when none were left out.
+   */
+  unlabelledLeftOut: z.number().int().optional(),
+  /** Tokens of the documents without gold the run reads; absent for runs that read none or predate it. */
+  unlabelledTokens: z.number().int().optional(),
+});
 
 /** The config a run trained with: every form field resolved to a value. */
 export const resolvedTrainingConfigSchema = z.object({
@@ -182,6 +203,10 @@ export const resolvedTrainingConfigSchema = z.object({
   semi: z.enum(["none", "em", "sample"]),
   iterations: z.number().int(),
   weight: z.number(),
+  /** 0 for runs recorded before word clusters existed. */
+  clusters: z.number().int(),
+  /** 0 for runs recorded before the perceptron option existed. */
+  perceptron: z.number().int(),
 });
 export type ResolvedTrainingConfig = z.infer<typeof resolvedTrainingConfigSchema>;
 

@@ -72,6 +72,11 @@ const envSchema = z.object({
   EXTRACT_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(1).default(15 * 60),
   /** Training tokens per shard: a run's documents are counted in slices of about this size. */
   TRAINING_SHARD_TOKENS: z.coerce.number().int().min(1).default(50_000),
+  /**
+   * Most tokens of documents without gold one run reads (word clusters, EM, sampling): the job
+   * holds them in memory, and clustering time grows with the words they bring.
+   */
+  TRAINING_UNLABELLED_TOKENS: z.coerce.number().int().min(1).default(200_000),
   /** How often a worker's pg-boss looks for expired jobs and does its housekeeping (seconds). */
   JOB_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(120),
 });

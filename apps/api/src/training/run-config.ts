@@ -18,6 +18,8 @@ export function resolveRunConfig(input: StartRunInput): { config: ResolvedTraini
     semi: input.semi ?? d.semi,
     iterations: input.iterations ?? d.iterations,
     weight: input.weight ?? d.weight,
+    clusters: input.clusters ?? d.clusters,
+    perceptron: input.perceptron ?? d.perceptron,
   };
   return { config, seed: input.seed ?? d.seed, testSplit: input.testSplit ?? d.testSplit };
 }
@@ -37,6 +39,24 @@ export function engineConfigOf(config: ResolvedTrainingConfig, seed: number): Pa
     semi: config.semi,
     iterations: config.iterations,
     weight: config.weight,
+    clusters: config.clusters,
+    perceptron: config.perceptron,
     seed,
   };
+}
+
+/**
+ * Runs with word clusters or perceptron passes train in one piece in the finishing job instead of
+ * from summed shard counts: clustering needs the bigrams of the whole text at once, and the
+ * perceptron decodes every training sentence with the whole model (the engine's sharded
+ * training refuses clusters and has no perceptron). The finishing job holds every training
+ * document in memory anyway (calibration, cross-validation), so this costs no more memory.
+ */
+export function trainsInOnePiece(config: ResolvedTrainingConfig): boolean {
+  return config.clusters > 0 || config.perceptron > 0;
+}
+
+/** Whether a run reads the corpus's documents without gold. */
+export function readsUnlabelled(config: ResolvedTrainingConfig): boolean {
+  return config.semi !== "none" || config.clusters > 0;
 }

@@ -3,6 +3,8 @@ import { db as defaultDb } from "@/db/knex";
 import { type Db, iso } from "@/db/types";
 
 export type RunDocumentRole = "train" | "test" | "unlabelled";
+/** Documents of a run per role, and those without gold left out by the token limit (when any). */
+export type DocumentCounts = { train: number; test: number; unlabelled: number; unlabelledLeftOut?: number; unlabelledTokens?: number };
 
 /** A training run row, camelCase; the plan is read separately (it can be megabytes). */
 export type RunRow = {
@@ -17,7 +19,7 @@ export type RunRow = {
   testSplit: TestSplit;
   progress: number;
   iterations: RunIteration[];
-  documentCounts: { train: number; test: number; unlabelled: number };
+  documentCounts: DocumentCounts;
   shardCount: number;
   error: string | null;
   cancelRequested: boolean;
@@ -38,7 +40,8 @@ const toRun = (r: Raw): RunRow => ({
   number: r.number as number,
   status: r.status as RunStatus,
   stage: (r.stage as RunStage | null) ?? null,
-  config: r.config as ResolvedTrainingConfig,
+  // Runs recorded before clusters and perceptron passes existed trained without them.
+  config: { clusters: 0, perceptron: 0, ...(r.config as Partial<ResolvedTrainingConfig>) } as ResolvedTrainingConfig,
   seed: r.seed as number,
   testSplit: r.test_split as TestSplit,
   progress: Number(r.progress),
@@ -108,7 +111,7 @@ export type NewRun = {
   config: ResolvedTrainingConfig;
   seed: number;
   testSplit: TestSplit;
-  documentCounts: { train: number; test: number; unlabelled: number };
+  documentCounts: DocumentCounts;
   shardCount: number;
   repeatOf: string | null;
   createdBy: string | null;

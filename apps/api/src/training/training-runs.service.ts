@@ -8,9 +8,10 @@ import { db as defaultDb } from "@/db/knex";
 import { type Db, isUuid } from "@/db/types";
 import { ConflictError, NotFoundError } from "@/errors";
 import { enqueueJob } from "@/jobs/boss";
-import { resolveRunConfig } from "./run-config";
+import { readsUnlabelled, resolveRunConfig, trainsInOnePiece } from "./run-config";
 import {
   type CorpusDocumentForRun,
+  type DocumentCounts,
   type NewRun,
   type RunDocument,
   type RunRow,
@@ -112,6 +113,24 @@ export function splitDocuments(
   return { train: gold.filter((_, i) => !held.has(i)), test: gold.filter((_, i) => held.has(i)) };
 }
 
+/**
+ * The documents a run may read without gold (word clusters, EM, sampling): those with no gold and
+ * not marked as test documents (a test document's text stays out of training even before it has
+ * gold), in upload order, until their tokens reach `tokenLimit`; the first document that would
+ * pass the limit and all after it are left out (so a repeat reads the same ones).
+ */
+export function selectUnlabelled(docs: CorpusDocumentForRun[], tokenLimit: number): { chosen: CorpusDocumentForRun[]; leftOut: number } {
+  const candidates = docs.filter((d) => !d.gold && d.split !== "test");
+  const chosen: CorpusDocumentForRun[] = [];
+  let tokens = 0;
+  for (const d of candidates) {
+    if (tokens + d.tokens > tokenLimit) break;
+    chosen.push(d);
+    tokens += d.tokens;
+  }
+  return { chosen, leftOut: candidates.length - chosen.length };
+}
+
 /** Gives consecutive training documents the same shard until a shard holds `shardTokens` tokens. */
 export function assignShards(train: CorpusDocumentForRun[], shardTokens: number): number[] {
   const shards: number[] = [];
@@ -136,10 +155,17 @@ async function createRun(
   repeatOf: string | null,
   actor: Actor,
   trx: Db,
+  unlabelledLeftOut = 0,
 ): Promise<RunRow> {
   await trx.raw("SELECT pg_advisory_xact_lock(hashtext(?))", [`training_runs:${corpusId}`]);
-  const counts = { train: 0, test: 0, unlabelled: 0 };
-  for (const d of documents) counts[d.role]++;
+  const counts: DocumentCounts = { train: 0, test: 0, unlabelled: 0 };
+  let unlabelledTokens = 0;
+  for (const d of documents) {
+    counts[d.role]++;
+    if (d.role === "unlabelled") unlabelledTokens += d.tokens;
+  }
+  if (counts.unlabelled > 0) counts.unlabelledTokens = unlabelledTokens;
+  if (unlabelledLeftOut > 0) counts.unlabelledLeftOut = unlabelledLeftOut;
   const shardCount = documents.reduce((m, d) => (d.role === "train" ? Math.max(m, d.shard + 1) : m), 0);
   const run = await insertRun({ organizationId, corpusId, ...settings, documentCounts: counts, shardCount, repeatOf, createdBy: actor.userId }, trx);
   await insertRunDocuments(organizationId, run.id, documents, trx);
@@ -156,8 +182,8 @@ async function createRun(
 }
 
 /**
- * Starts a training run: records the documents (training, test and, for EM or sampling, the
- * corpus's documents without gold), the gold version of each, the config and the seed, then
+ * Starts a training run: records the documents (training, test and, for word clusters, EM or
+ * sampling, the corpus's documents without gold up to the token limit), the gold version of each, the config and the seed, then
  * queues the loading job. Refuses (409, nothing queued) without a gold training document or with
  * an empty test split.
  */
@@ -183,17 +209,19 @@ export async function startRun(organizationId: string, corpusId: string, input: 
         "empty_test_split",
       );
     }
-    const shards = assignShards(train, env.TRAINING_SHARD_TOKENS);
+    // A run that trains in one piece gets one shard whatever its size.
+    const shards = assignShards(train, trainsInOnePiece(settings.config) ? Number.POSITIVE_INFINITY : env.TRAINING_SHARD_TOKENS);
     const documents: RunDocument[] = [
       ...train.map((d, i) => ({ documentId: d.id, role: "train" as const, position: i, goldVersion: d.goldVersion, shard: shards[i]!, tokens: d.tokens })),
       ...test.map((d, i) => ({ documentId: d.id, role: "test" as const, position: i, goldVersion: d.goldVersion, shard: 0, tokens: d.tokens })),
     ];
-    if (settings.config.semi !== "none") {
-      docs
-        .filter((d) => !d.gold)
-        .forEach((d, i) => documents.push({ documentId: d.id, role: "unlabelled", position: i, goldVersion: null, shard: 0, tokens: d.tokens }));
+    let leftOut = 0;
+    if (readsUnlabelled(settings.config)) {
+      const unlabelled = selectUnlabelled(docs, env.TRAINING_UNLABELLED_TOKENS);
+      unlabelled.chosen.forEach((d, i) => documents.push({ documentId: d.id, role: "unlabelled", position: i, goldVersion: null, shard: 0, tokens: d.tokens }));
+      leftOut = unlabelled.leftOut;
     }
-    const created = await createRun(organizationId, corpusId, settings, documents, null, actor, trx);
+    const created = await createRun(organizationId, corpusId, settings, documents, null, actor, trx, leftOut);
     await recordAudit(trx, actor, organizationId, "training_run.started", { type: "training_run", id: created.id, label: `Run ${created.number} of ${corpus.name}` }, {
       config: settings.config,
       seed: settings.seed,
@@ -228,7 +256,16 @@ export async function repeatRun(organizationId: string, corpusId: string, runId:
       );
     }
     const documents = recorded.map((d) => ({ ...d, tokens: current.get(d.documentId)?.tokens ?? 0 }));
-    const created = await createRun(organizationId, corpusId, { config: original.config, seed: original.seed, testSplit: original.testSplit }, documents, original.id, actor, trx);
+    const created = await createRun(
+      organizationId,
+      corpusId,
+      { config: original.config, seed: original.seed, testSplit: original.testSplit },
+      documents,
+      original.id,
+      actor,
+      trx,
+      original.documentCounts.unlabelledLeftOut ?? 0,
+    );
     await recordAudit(trx, actor, organizationId, "training_run.repeated", { type: "training_run", id: created.id, label: `Run ${created.number} of ${corpus.name}` }, {
       repeatOf: original.id,
       repeatOfNumber: original.number,

@@ -5,6 +5,8 @@ import {
   type ShardCounts,
   type ShardPlan,
   type ShardWordCounts,
+  type TaggerModel,
+  type TrainingConfig,
   countShard,
   countShardWords,
   createRng,
@@ -23,7 +25,7 @@ import { listEntityTypes } from "@/corpora/corpora.service";
 import { db } from "@/db/knex";
 import { defineJob } from "@/jobs/registry";
 import { logger } from "@/logger";
-import { engineConfigOf } from "./run-config";
+import { engineConfigOf, trainsInOnePiece } from "./run-config";
 import { toColumnDocument, toWordSentences } from "./run-documents";
 import { type LearningCurvePoint, buildEvaluation } from "./run-evaluation";
 import { insertTagger } from "./taggers.service";
@@ -103,6 +105,12 @@ const shardSizes = (run: RunRow) => listShardSizes(run.organizationId, run.id);
 async function loadRun(organizationId: string, runId: string): Promise<void> {
   const run = await checkRun(organizationId, runId);
   await enterStage(run, "loading", 0.02);
+  if (trainsInOnePiece(run.config)) {
+    // No shard plan: the finishing job counts and trains from all the documents at once.
+    await updateRun(organizationId, runId, { stage: "counting", progress: 0.15, logStage: "counting" });
+    await enqueueTrainingJob(TRAINING_FINISH_QUEUE, { organizationId, runId });
+    return;
+  }
   const types = await typeNamesOf(run);
   const sizes = await shardSizes(run);
   const parts: ShardWordCounts[] = [];
@@ -140,14 +148,53 @@ async function countRunShard(organizationId: string, runId: string, shard: numbe
   if (advance) await enqueueTrainingJob(TRAINING_FINISH_QUEUE, { organizationId, runId });
 }
 
-/** Stages smoothing → unlabelled iterations → cross-validation → evaluation → storing. */
-async function finishRun(organizationId: string, runId: string): Promise<void> {
-  let run = await checkRun(organizationId, runId);
-  if (await findTaggerOfRun(organizationId, runId)) {
-    await updateRun(organizationId, runId, { status: "succeeded", stage: "storing", progress: 1, finished: true });
-    return;
-  }
-  const config = engineConfigOf(run.config, run.seed);
+type Trained = {
+  run: RunRow;
+  /** The model before any pass over the documents without gold. */
+  supervised: TaggerModel;
+  model: TaggerModel;
+  semi: { method: "em" | "sample"; iterations: RunIteration[] } | null;
+  /** The documents without gold the clustering read (empty without clusters). */
+  clusterText: string[][][];
+};
+
+async function readUnlabelled(run: RunRow): Promise<string[][][]> {
+  const unlabelled: string[][][] = [];
+  for await (const row of streamRunDocuments(run.organizationId, run.id, "unlabelled", null)) unlabelled.push(toWordSentences(row));
+  return unlabelled;
+}
+
+/** Reads every training document into `train` (in shard order). */
+async function readTraining(run: RunRow, train: ColumnDocument[], types: Map<string, string>, sizes: number[]): Promise<void> {
+  for (let shard = 0; shard < sizes.length; shard++) train.push(...(await collect(readLabelled(run, "train", shard, sizes[shard]!, types))));
+}
+
+/**
+ * Stages counting → smoothing → unlabelled for a run with clusters or perceptron passes: one
+ * trainTagger call over all the training documents, with the documents without gold as the
+ * clustering's extra text; EM or sampling then run inside the engine in one call (their passes
+ * are stored when it returns).
+ */
+async function trainInOnePiece(run: RunRow, config: Partial<TrainingConfig>, train: ColumnDocument[], types: Map<string, string>, sizes: number[]): Promise<Trained> {
+  await enterStage(run, "counting", 0.15);
+  await readTraining(run, train, types, sizes);
+  const unlabelled = run.documentCounts.unlabelled > 0 ? await readUnlabelled(run) : [];
+  const clusterText = run.config.clusters > 0 ? unlabelled : [];
+  const supervised = trainTagger(train, { ...config, semi: "none" }, { unlabelled: clusterText }).model;
+  run = await checkRun(run.organizationId, run.id);
+  const method = run.config.semi;
+  if (method === "none" || run.config.iterations === 0 || unlabelled.length === 0) return { run, supervised, model: supervised, semi: null, clusterText };
+  await enterStage(run, "unlabelled", 0.5);
+  const { model, history } = trainTagger(train, config, { unlabelled, rng: createRng(run.seed), now: () => performance.now() });
+  const iterations = history.map((r, n) => ({ iteration: n + 1, logLikelihood: r.logLikelihood, seconds: r.seconds ?? 0, statisticsBytes: r.statisticsBytes }));
+  run = await checkRun(run.organizationId, run.id);
+  await updateRun(run.organizationId, run.id, { iterations, progress: 0.6 });
+  return { run, supervised, model, semi: { method, iterations }, clusterText };
+}
+
+/** Stages smoothing → unlabelled iterations from the summed shard counts. */
+async function trainFromShardCounts(run: RunRow, config: Partial<TrainingConfig>, train: ColumnDocument[], types: Map<string, string>, sizes: number[]): Promise<Trained> {
+  const { organizationId, id: runId } = run;
   const plan = JSON.parse((await findRunPlan(organizationId, runId))!) as ShardPlan;
   await enterStage(run, "smoothing", 0.45);
   // Shards folded in one at a time, in shard order: memory holds two shards' counts, not all.
@@ -160,21 +207,17 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
   }
   // The training documents, in shard order: the confidence calibration, cross-validation and the
   // learning curve read them.
-  const types = await typeNamesOf(run);
-  const sizes = await shardSizes(run);
-  const train: ColumnDocument[] = [];
-  for (let shard = 0; shard < sizes.length; shard++) train.push(...(await collect(readLabelled(run, "train", shard, sizes[shard]!, types))));
+  await readTraining(run, train, types, sizes);
   const { model: supervised, statistics } = trainFromShards(plan, [summed!], config, train);
   let model = supervised;
 
   const iterations: RunIteration[] = [];
-  let semi: { method: "em" | "sample"; iterations: RunIteration[] } | null = null;
+  let semi: Trained["semi"] = null;
   const method = run.config.semi;
   if (method !== "none" && run.config.iterations > 0 && run.documentCounts.unlabelled > 0) {
     run = await checkRun(organizationId, runId);
     await enterStage(run, "unlabelled", 0.5);
-    const unlabelled: string[][][] = [];
-    for await (const row of streamRunDocuments(organizationId, runId, "unlabelled", null)) unlabelled.push(toWordSentences(row));
+    const unlabelled = await readUnlabelled(run);
     const rng = createRng(run.seed);
     for (let n = 0; n < run.config.iterations; n++) {
       // One pass at a time (the same sequence as one call with all iterations: each pass starts
@@ -189,6 +232,28 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
     }
     semi = { method, iterations };
   }
+  return { run, supervised, model, semi, clusterText: [] };
+}
+
+/** Stages smoothing → unlabelled iterations → cross-validation → evaluation → storing. */
+async function finishRun(organizationId: string, runId: string): Promise<void> {
+  let run = await checkRun(organizationId, runId);
+  if (await findTaggerOfRun(organizationId, runId)) {
+    await updateRun(organizationId, runId, { status: "succeeded", stage: "storing", progress: 1, finished: true });
+    return;
+  }
+  const config = engineConfigOf(run.config, run.seed);
+  const types = await typeNamesOf(run);
+  const sizes = await shardSizes(run);
+  const train: ColumnDocument[] = [];
+  const trained = trainsInOnePiece(run.config)
+    ? await trainInOnePiece(run, config, train, types, sizes)
+    : await trainFromShardCounts(run, config, train, types, sizes);
+  const supervised = trained.supervised;
+  const model = trained.model;
+  run = trained.run;
+  const semi = trained.semi;
+  const clusterText = trained.clusterText;
 
   let crossValidation = null;
   const folds = run.config.crossValidationFolds;
@@ -213,7 +278,7 @@ async function finishRun(organizationId: string, runId: string): Promise<void> {
   const steps = learningCurvePlan(train.length, { fractions: LEARNING_CURVE_FRACTIONS, rng: createRng(run.seed) });
   for (const step of steps) {
     const subset = step.documentIndices.map((i) => train[i]!);
-    const curveModel = step.documentIndices.length === train.length ? supervised : trainTagger(subset, { ...config, semi: "none" }).model;
+    const curveModel = step.documentIndices.length === train.length ? supervised : trainTagger(subset, { ...config, semi: "none" }, { unlabelled: clusterText }).model;
     const scored = evaluateModel(curveModel, test);
     const e = scored.entities;
     learningCurve.push({

@@ -85,6 +85,8 @@ const run = {
     semi: "sample",
     iterations: 2,
     weight: 0.1,
+    clusters: 0,
+    perceptron: 0,
   },
   seed: 4242,
   testSplit: { kind: "corpus" },

@@ -20,6 +20,8 @@ export function ConfigList({ config: c, seed, testSplit }: { config: ResolvedTra
       c.positionBuckets.token.length === 0 && c.positionBuckets.sentence.length === 0,
     ],
     ["Documents without gold", c.semi === "none" ? semiNames.none : `${semiNames[c.semi]}, ${c.iterations} passes, weight ${c.weight}`, c.semi === d.semi],
+    ["Word clusters", c.clusters === 0 ? "off" : `${c.clusters}, learnt with the documents without gold`, c.clusters === d.clusters],
+    ["Perceptron passes", c.perceptron === 0 ? "off" : String(c.perceptron), c.perceptron === d.perceptron],
     ["Cross-validation", c.crossValidationFolds === null ? "off" : `${c.crossValidationFolds} folds`, c.crossValidationFolds === d.crossValidationFolds],
     ["Test split", testSplit.kind === "corpus" ? "the corpus's test documents" : `random hold-out of ${testSplit.percent} %`, testSplit.kind === "corpus"],
     ["Seed", String(seed), seed === d.seed],

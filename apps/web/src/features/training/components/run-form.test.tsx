@@ -62,4 +62,28 @@ describe("the training-run form", () => {
     await userEvent.click(screen.getByRole("button", { name: "Start training" }));
     expect(await screen.findByText(/The test split has no gold documents/)).toBeInTheDocument();
   });
+
+  it("starts word clusters and perceptron passes at 0 (off) and sends what is typed", async () => {
+    const onSubmit = vi.fn().mockResolvedValue(null);
+    renderWithProviders(<RunForm onSubmit={onSubmit} busy={false} />);
+    expect(screen.getByLabelText("Word clusters")).toHaveValue("0");
+    expect(screen.getByText(/Learnt from this corpus's documents without gold; 0 = off\./)).toBeInTheDocument();
+    await userEvent.clear(screen.getByLabelText("Word clusters"));
+    await userEvent.type(screen.getByLabelText("Word clusters"), "50");
+    await userEvent.clear(screen.getByLabelText("Perceptron passes"));
+    await userEvent.type(screen.getByLabelText("Perceptron passes"), "3");
+    expect(screen.getAllByText(/Changed; default 0\./)).toHaveLength(2);
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    expect(onSubmit.mock.calls[0]![0]).toMatchObject({ clusters: 50, perceptron: 3 });
+  });
+
+  it("refuses out-of-range word clusters and perceptron passes with the shared schema's words", () => {
+    const bad = (clusters: string, perceptron: string, order: "1" | "2" = "1") => toRunInput({ ...defaultRunFormValues, clusters, perceptron, order }).errors;
+    expect(bad("1001", "21")).toEqual({ clusters: "Use at most 1000 clusters.", perceptron: "Use at most 20 passes." });
+    expect(bad("-1", "-1")).toEqual({ clusters: "Use 0 clusters (off) or more.", perceptron: "Use 0 passes (off) or more." });
+    expect(bad("2.5", "1.5")).toEqual({ clusters: "Use a whole number of clusters.", perceptron: "Use a whole number of passes." });
+    expect(bad("many", "")).toEqual({ clusters: "Enter a number.", perceptron: "Enter a number." });
+    expect(bad("0", "2", "2")).toEqual({ perceptron: "Perceptron passes need model order 1." });
+    expect(toRunInput({ ...defaultRunFormValues, clusters: "1000", perceptron: "20" }).input).toMatchObject({ clusters: 1000, perceptron: 20 });
+  });
 });

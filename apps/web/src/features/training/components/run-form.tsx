@@ -27,6 +27,8 @@ export type RunFormValues = {
   split: "corpus" | "holdout";
   holdoutPercent: string;
   seed: string;
+  clusters: string;
+  perceptron: string;
 };
 
 export const defaultRunFormValues: RunFormValues = {
@@ -50,6 +52,8 @@ export const defaultRunFormValues: RunFormValues = {
   split: d.testSplit.kind,
   holdoutPercent: "20",
   seed: String(d.seed),
+  clusters: String(d.clusters),
+  perceptron: String(d.perceptron),
 };
 
 /** Which form field shows the message of each request field (the API's and zod's paths). */
@@ -73,6 +77,8 @@ const fieldOfPath: Record<string, keyof RunFormValues> = {
   testSplit: "split",
   "testSplit.percent": "holdoutPercent",
   seed: "seed",
+  clusters: "clusters",
+  perceptron: "perceptron",
 };
 
 type Errors = Partial<Record<keyof RunFormValues, string>>;
@@ -120,6 +126,8 @@ export function toRunInput(v: RunFormValues): { input: StartRunInput; errors: nu
     weight: num("weight"),
     testSplit: v.split === "corpus" ? { kind: "corpus" as const } : { kind: "holdout" as const, percent: num("holdoutPercent") },
     seed: num("seed"),
+    clusters: num("clusters"),
+    perceptron: num("perceptron"),
   };
   if (Object.keys(errors).length) return { input: null, errors };
   const parsed = trainingConfigInputSchema.safeParse(raw);
@@ -261,6 +269,14 @@ export function RunForm({ onSubmit, busy }: { onSubmit: (input: StartRunInput) =
           </Field>
           {numberField("iterations", "Passes", "Passes over the documents without gold.", { inputMode: "numeric" })}
           {numberField("weight", "Weight", "Weight of their counts against the gold counts.")}
+        </div>
+      </Card>
+      <Card className="space-y-3">
+        <h2 className="font-semibold text-ink-900">Word clusters and perceptron</h2>
+        <p className="text-sm text-ink-500">Both make training slower; a run with either trains all its documents in one piece.</p>
+        <div className="grid gap-3 sm:grid-cols-3">
+          {numberField("clusters", "Word clusters", "Learnt from this corpus's documents without gold; 0 = off.", { inputMode: "numeric" })}
+          {numberField("perceptron", "Perceptron passes", "Passes that reweigh word scores on the gold documents; 0 = off.", { inputMode: "numeric" })}
         </div>
       </Card>
       <Card className="space-y-3">

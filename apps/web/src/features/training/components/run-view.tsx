@@ -94,7 +94,8 @@ export function RunView({ orgId, corpusId, run, canTrain }: { orgId: string; cor
         </ol>
         <p className="mt-3 text-xs text-ink-500">
           {run.documentCounts.train} training documents, {run.documentCounts.test} test documents
-          {run.config.semi !== "none" ? `, ${run.documentCounts.unlabelled} without gold` : ""} · counted in {run.shardCount} {run.shardCount === 1 ? "shard" : "shards"} · queued{" "}
+          {run.config.semi !== "none" || run.config.clusters > 0 ? `, ${run.documentCounts.unlabelled} without gold` : ""}
+          {run.documentCounts.unlabelledLeftOut ? ` (${run.documentCounts.unlabelledLeftOut} more left out: over the token limit for documents without gold)` : ""} · counted in {run.shardCount} {run.shardCount === 1 ? "shard" : "shards"} · queued{" "}
           {formatDateTime(run.createdAt)}
           {run.finishedAt ? ` · ended ${formatDateTime(run.finishedAt)}` : ""}
         </p>
