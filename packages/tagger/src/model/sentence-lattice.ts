@@ -42,7 +42,7 @@ const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PR
  * kept in a pool bounded by its size (K² numbers each, two arrays), which starts afresh when full;
  * the pairs seen without overrides are remembered too, up to POOL_PAIRS of them.
  */
-const MAX_POOL_NUMBERS = 1 << 21;
+const MAX_POOL_NUMBERS = 1 << 18;
 const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
 const POOL_PAIRS = 1 << 18;
 
@@ -70,6 +70,8 @@ export type SentenceLattice = {
   stepIndex: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
+  /** Emission row of each token in the model cache (see Cache.wordRows). */
+  rows: Int32Array;
   /** Buffers of the Viterbi pass over this lattice, and its path (T entries used). */
   viterbi: ViterbiWorkspace;
   path: Int32Array;
@@ -162,6 +164,7 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     emissions: new Float64Array(capacity * K),
     end: null,
     stepIndex: new Int32Array(capacity),
+    rows: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
     viterbi: createViterbiWorkspace(K, capacity),
     path: new Int32Array(capacity),
@@ -324,13 +327,6 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
 function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
   const found = findWord(cache.words, word, first);
   if (found >= 0) return found;
-  // Earlier tokens of the sentence have copied their rows already, so starting afresh is safe.
-  if (cache.words.size >= MAX_WORD_ENTRIES || cache.rowCount >= MAX_WORD_ENTRIES) {
-    clearWords(cache.words);
-    cache.rowCount = 0;
-    cache.symbolRows.fill(-1);
-    clearPairs(cache.suffixRows);
-  }
   const K = cache.K;
   const symbol = symbolOf(model.vocabulary, word, first);
   let suffix = -1;
@@ -456,10 +452,20 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   lattice.length = T;
   lattice.end = cache.end;
   const { symbols, logEmissions, emissions, logStart, start } = lattice;
+  // Start afresh between sentences only (this one's tokens then all find their rows), at most
+  // T words and rows later.
+  if (cache.words.size + T > MAX_WORD_ENTRIES || cache.rowCount + T > MAX_WORD_ENTRIES) {
+    clearWords(cache.words);
+    cache.rowCount = 0;
+    cache.symbolRows.fill(-1);
+    clearPairs(cache.suffixRows);
+  }
+  // Two passes, so that the memory reads of one token's lookup and of the next token's overlap.
+  const entries = lattice.rows;
+  for (let t = 0; t < T; t++) entries[t] = wordEntry(model, cache, words[t], t === 0);
+  const rows = cache.wordRows;
   for (let t = 0; t < T; t++) {
-    const entry = wordEntry(model, cache, words[t], t === 0);
-    const rows = cache.wordRows;
-    const at = entry * (2 * K + 1);
+    const at = entries[t] * (2 * K + 1);
     symbols[t] = rows[at];
     for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
       logEmissions[to + k] = rows[from + k];
