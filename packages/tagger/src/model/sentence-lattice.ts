@@ -1,5 +1,5 @@
 import { contextEmissionLogRatio } from "../estimation/context-emissions";
-import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
+import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
@@ -125,10 +125,10 @@ type Cache = {
   exceptionCells: Int32Array | null;
   exceptionRatios: Float64Array | null;
   /**
-   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous·S + symbol) →
+   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous, symbol) →
    * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
    */
-  pairIndex: CountTable | null;
+  pairIndex: PairTable | null;
   pairStarts: Int32Array | null;
   pairStates: Int32Array | null;
   pairRatios: Float64Array | null;
@@ -184,7 +184,7 @@ function createCache(model: TaggerModel): Cache {
   let exceptionOffsets: Int32Array | null = null;
   let exceptionCells: Int32Array | null = null;
   let exceptionRatios: Float64Array | null = null;
-  let pairIndex: CountTable | null = null;
+  let pairIndex: PairTable | null = null;
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
@@ -218,7 +218,7 @@ function createCache(model: TaggerModel): Cache {
     exceptionRatios = new Float64Array(exceptionOffsets[S]);
     const fill = exceptionOffsets.slice(0, S);
     // Inside-segment contexts: group the entries by (previous symbol, symbol).
-    pairIndex = createCountTable();
+    pairIndex = createPairTable();
     const pairSizes: number[] = [];
     // Segment cells first, then the start cells (context K), within each symbol's list.
     for (const startCells of [false, true]) {
@@ -242,12 +242,11 @@ function createCache(model: TaggerModel): Cache {
       const context = Math.floor(row / K);
       if (context > K) {
         pairSymbols[symbol] = 1;
-        const pair = (context - K - 1) * S + symbol;
-        const found = findEntry(pairIndex, pair);
+        const found = getPair(pairIndex, context - K - 1, symbol, -1);
         if (found < 0) {
-          addCount(pairIndex, pair, pairSizes.length);
+          setPair(pairIndex, context - K - 1, symbol, pairSizes.length);
           pairSizes.push(1);
-        } else pairSizes[pairIndex.values[found]]++;
+        } else pairSizes[found]++;
       }
     }
     const pairStarts = new Int32Array(pairSizes.length + 1);
@@ -262,7 +261,7 @@ function createCache(model: TaggerModel): Cache {
       const context = Math.floor(row / K);
       if (context <= K) continue;
       const j = row % K;
-      const q = getCount(pairIndex, (context - K - 1) * S + symbol);
+      const q = getPair(pairIndex, context - K - 1, symbol, -1);
       const x = pairFill[q]++;
       pairStates[x] = j;
       pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
@@ -475,7 +474,6 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const { parameters } = model;
   const contextTable = parameters.contextEmission;
   const segmentStarts = model.segmentStarts;
-  const S = model.statistics.symbols;
   const withContext = contextTable !== null && segmentStarts !== null;
   const offsets = cache.exceptionOffsets!;
   const cells = cache.exceptionCells!;
@@ -534,8 +532,8 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
       if (pooled > 0) stepIndex[t] = pooled;
       continue;
     }
-    const group = maybePair ? findEntry(cache.pairIndex!, previous * S + symbol) : -1;
-    if (!hasSegmentCells && group < 0) {
+    const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
+    if (!hasSegmentCells && q < 0) {
       setPair(cache.pool, previous, symbol, 0);
       continue;
     }
@@ -561,8 +559,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
       exps[out + cell] = Math.exp(v);
     }
     // Inside-segment cells whose context (the previous word) was seen followed by this word.
-    if (group < 0) continue;
-    const q = cache.pairIndex!.values[group];
+    if (q < 0) continue;
     const pairStates = cache.pairStates!;
     const pairRatios = cache.pairRatios!;
     for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
