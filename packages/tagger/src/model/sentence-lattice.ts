@@ -270,8 +270,9 @@ function createCache(model: TaggerModel): Cache {
   }
   return {
     K,
-    words: createWordTable(),
-    wordRows: new Float64Array(1024 * (2 * K + 1)),
+    // Room for about as many word types as the vocabulary has symbols before the first growth.
+    words: createWordTable(Math.min(MAX_WORD_ENTRIES, Math.max(1024, 2 * S))),
+    wordRows: new Float64Array(Math.min(MAX_WORD_ENTRIES, Math.max(1024, S)) * (2 * K + 1)),
     rowCount: 0,
     symbolRows: new Int32Array(S).fill(-1),
     suffixRows: createPairTable(),

@@ -128,7 +128,7 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
     rootRows: new Int32Array(rootList.length).fill(NO_ROW),
     statNode,
     slots,
-    rows: new Float64Array(128 * K),
+    rows: new Float64Array(Math.max(64, nodes >> 3) * 2 * K),
     rowCount: 0,
   };
 }
