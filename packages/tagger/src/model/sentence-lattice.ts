@@ -5,7 +5,7 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
-import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
+import { addNodeLogRatio, createSuffixTrie, suffixNode, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
 import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
@@ -85,13 +85,13 @@ type Cache = {
    * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
    * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
    * A symbol's own row serves every word read as that symbol without a suffix ratio; the others
-   * have one row per (symbol, suffix row of the trie).
+   * have one row per (symbol, suffix trie node).
    */
   wordRows: Float64Array;
   rowCount: number;
   /** Row of each symbol's plain scores, or −1. */
   symbolRows: Int32Array;
-  /** (symbol, suffix row) → emission row. */
+  /** (symbol, suffix trie node) → emission row. */
   suffixRows: PairTable;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
@@ -330,11 +330,12 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const K = cache.K;
   const symbol = symbolOf(model.vocabulary, word, first);
   let suffix = -1;
+  let group = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
-    const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    suffix = suffixRatioRow(cache.suffix, word, group);
+    group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
+    suffix = suffixNode(cache.suffix, word, group);
   }
   let row = suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
   if (row < 0) {
@@ -347,8 +348,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     const out = row * W + 1;
     for (let k = 0; k < K; k++) rows[out + k] = emissions[symbol * K + k];
     if (suffix >= 0) {
-      const ratios = cache.suffix!.rows;
-      for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
+      addNodeLogRatio(cache.suffix!, group, suffix, rows, out);
       setPair(cache.suffixRows, symbol, suffix, row);
     } else cache.symbolRows[symbol] = row;
     for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
