@@ -44,7 +44,7 @@ const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PR
  */
 const MAX_POOL_NUMBERS = 1 << 18;
 const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
-const POOL_PAIRS = 1 << 18;
+const POOL_PAIRS = 1 << 15;
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {

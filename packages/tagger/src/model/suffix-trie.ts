@@ -63,7 +63,7 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
   /** Slot offset of each non-root node's edge. */
   let edgeOf: Int32Array = new Int32Array(statNode.length).fill(-1);
   let capacity = 8;
-  while (capacity < 2 * statNode.length) capacity *= 2;
+  while (3 * capacity < 4 * statNode.length) capacity *= 2;
   let slots = new Int32Array(SLOT * capacity);
   const place = (table: Int32Array, parent: number, unit: number, child: number, state: number): number => {
     const mask = table.length / SLOT - 1;
@@ -96,7 +96,7 @@ export function createSuffixTrie(stats: SuffixStatistics): SuffixTrie {
     }
     const created = newNode(parent, depthOf[parent] + 1);
     edgeOf[created] = place(slots, parent, unit, created, 0);
-    if (2 * nodes > slots.length / SLOT) {
+    if (4 * nodes > 3 * (slots.length / SLOT)) {
       const old = slots;
       slots = new Int32Array(2 * old.length);
       for (let x = 0; x < old.length; x += SLOT) if (old[x + 2] !== 0) edgeOf[old[x + 2]] = place(slots, old[x], old[x + 1], old[x + 2], old[x + 3]);
