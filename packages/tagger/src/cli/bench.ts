@@ -5,16 +5,20 @@
 import { createSyntheticCorpus, createViterbiWorkload } from "../kernels/synthetic";
 import { segmentStartTable } from "../estimation/context-emissions";
 import { countSupervised } from "../estimation/train";
-import { createViterbiWorkspace, decodeViterbi } from "../kernels/viterbi";
+import { decodeViterbi } from "../kernels/viterbi";
 import { createSyntheticDocuments } from "../kernels/synthetic";
 import { tagSentence, trainTagger } from "../model/tagger";
 
 const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
 
-/** Tokens per second of our Viterbi on the C reference's workload shape (best of `repeats` passes). */
+/**
+ * Tokens per second of our Viterbi on the C reference's workload shape (best of `repeats` passes),
+ * called as the model's decoder calls it (decode.ts: path out, no workspace), so the WebAssembly
+ * kernel's lattice stays in its memory as the C program's stays in its buffer; with a workspace
+ * decodeViterbi also copies the T×K lattice out for the caller.
+ */
 export function benchViterbi(states: number, tokens: number, repeats: number): number {
   const { params, emissionTable, words, sentenceStarts } = createViterbiWorkload(states, tokens);
-  const workspace = createViterbiWorkspace(states, 64);
   const out = new Int32Array(tokens);
   const sentences = sentenceStarts.length - 1;
   // Per-sentence views are prepared before timing, as the C program prepares its word ids.
@@ -26,7 +30,7 @@ export function benchViterbi(states: number, tokens: number, repeats: number): n
   let best = Infinity;
   for (let r = 0; r < repeats; r++) {
     const started = process.hrtime.bigint();
-    for (let s = 0; s < sentences; s++) decodeViterbi(params, inputs[s].input, inputs[s].out, workspace);
+    for (let s = 0; s < sentences; s++) decodeViterbi(params, inputs[s].input, inputs[s].out);
     best = Math.min(best, seconds(started));
   }
   return tokens / best;
