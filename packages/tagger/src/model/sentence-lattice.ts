@@ -39,12 +39,17 @@ const MAX_PREVIOUS_NUMBERS = 1 << 22;
 const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PREVIOUS_NUMBERS / (K * K)));
 /**
  * Patched step matrices, one per (previous symbol, symbol) pair whose word overrides cells, are
- * kept in a pool bounded by its size (K² numbers each, two arrays), which starts afresh when full;
- * the pairs seen without overrides are remembered too, up to POOL_PAIRS of them.
+ * kept in a direct-mapped pool (each pair has one place, chosen by hashing, where it replaces the
+ * pair there before it) bounded by its size (K² numbers each, two arrays); small enough that its
+ * index stays in the processor's caches. A pair that overrides no cell is remembered there too.
  */
 const MAX_POOL_NUMBERS = 1 << 18;
-const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
-const POOL_PAIRS = 1 << 15;
+/** Pool places: the largest power of two within MAX_POOL_NUMBERS, at least 256. */
+function poolSizeFor(K: number): number {
+  let size = 256;
+  while (2 * size * K * K <= MAX_POOL_NUMBERS) size *= 2;
+  return size;
+}
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {
@@ -97,19 +102,23 @@ type Cache = {
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
   /**
-   * The same with the context-free context-emission ratio added, and its exp: matrices
-   * 1..patches−1 are the pool of patched matrices (matrix 0 holds the plain transitions of models
-   * without previous-word or context tables), slot s is matrix patches + s.
+   * The same with the context-free context-emission ratio added, and its exp: matrix 0 holds the
+   * plain transitions of models without previous-word or context tables, matrices 1..poolSize
+   * the pool of patched matrices (place h is matrix 1 + h), matrices poolSize + 1 + t this
+   * sentence's step t when its pool place is taken by a pair this sentence uses, and slot s is
+   * matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
   patches: number;
   /**
-   * (previous symbol, symbol) → the pool matrix of that step, or 0 when the pair overrides no
-   * cell (the previous symbol's slot matrix serves); poolCount is the next free pool matrix.
+   * The pool's places, 4 ints each: previous symbol + 1 (0 = empty), symbol, the pair's matrix
+   * (0 when the pair overrides no cell: the previous symbol's slot matrix serves), and the number
+   * of the sentence that last wrote the place (a place that sentence's steps read is not replaced).
    */
-  pool: PairTable;
-  poolCount: number;
+  poolKeys: Int32Array;
+  poolSize: number;
+  sentence: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
   pairSymbols: Uint8Array;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
@@ -278,11 +287,12 @@ function createCache(model: TaggerModel): Cache {
     suffixRows: createPairTable(),
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
-    previousLog: new Float64Array(128 * KK),
-    previousExp: new Float64Array(128 * KK),
-    patches: 64,
-    pool: createPairTable(),
-    poolCount: 1,
+    previousLog: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
+    previousExp: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
+    patches: 1 + poolSizeFor(K) + 64,
+    poolKeys: new Int32Array(4 * poolSizeFor(K)),
+    poolSize: poolSizeFor(K),
+    sentence: 0,
     pairSymbols,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
@@ -418,7 +428,23 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   return entry;
 }
 
-/** Makes the pool hold `length` matrices, keeping its matrices and moving the slots behind it. */
+/** The pool place of a (previous symbol, symbol) pair. */
+function poolPlace(previous: number, symbol: number, mask: number): number {
+  let h = Math.imul(previous, 0x9e3779b1) ^ Math.imul(symbol ^ 0x5bd1e995, 0x85ebca6b);
+  h ^= h >>> 15;
+  h = Math.imul(h, 0x2c1b3c6d);
+  h ^= h >>> 13;
+  return h & mask;
+}
+
+function setPlace(keys: Int32Array, place: number, previous: number, symbol: number, matrix: number, sentence: number): void {
+  keys[place] = previous + 1;
+  keys[place + 1] = symbol;
+  keys[place + 2] = matrix;
+  keys[place + 3] = sentence;
+}
+
+/** Makes room for `length` matrices before the slots, keeping the pool's and moving the slots behind. */
 function reservePatches(cache: Cache, length: number): void {
   if (cache.patches >= length) return;
   const KK = cache.K * cache.K;
@@ -426,8 +452,8 @@ function reservePatches(cache: Cache, length: number): void {
   const size = (patches + Math.max(cache.previousCount, 64)) * KK;
   const log = new Float64Array(size);
   const exp = new Float64Array(size);
-  log.set(cache.previousLog.subarray(0, cache.poolCount * KK));
-  exp.set(cache.previousExp.subarray(0, cache.poolCount * KK));
+  log.set(cache.previousLog.subarray(0, (1 + cache.poolSize) * KK));
+  exp.set(cache.previousExp.subarray(0, (1 + cache.poolSize) * KK));
   log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   cache.previousLog = log;
@@ -491,14 +517,15 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
   if (T < 2) return lattice;
-  // Start afresh between sentences only: the steps of this one point into the slots and the pool,
-  // which gains at most T − 1 matrices.
-  if (cache.poolCount + T > cache.patches && cache.patches < poolLimit(K)) reservePatches(cache, cache.poolCount + T);
-  if (cache.poolCount + T > cache.patches || cache.pool.size + T > POOL_PAIRS) {
-    clearPairs(cache.pool);
-    cache.poolCount = 1;
-    reservePatches(cache, T + 1);
+  // Room for this sentence's own patched steps; a new sentence number frees the pool's places.
+  reservePatches(cache, 1 + cache.poolSize + T);
+  if (++cache.sentence >= 0x3fffffff) {
+    cache.poolKeys.fill(0);
+    cache.sentence = 1;
   }
+  const poolKeys = cache.poolKeys;
+  const poolMask = cache.poolSize - 1;
+  // Start afresh between sentences only: the steps of this one point into the slots.
   if (cache.previousCount + T > previousLimit(K)) {
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
@@ -528,19 +555,27 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const hasSegmentCells = first < last && cells[first] < KK;
     const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
     if (!hasSegmentCells && !maybePair) continue;
-    const pooled = getPair(cache.pool, previous, symbol, -1);
-    if (pooled >= 0) {
-      if (pooled > 0) stepIndex[t] = pooled;
+    const place = 4 * poolPlace(previous, symbol, poolMask);
+    if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
+      const pooled = poolKeys[place + 2];
+      if (pooled > 0) {
+        stepIndex[t] = pooled;
+        // This sentence reads the matrix now: keep the place until the next sentence.
+        poolKeys[place + 3] = cache.sentence;
+      }
       continue;
     }
+    // The place is free unless this sentence reads its matrix.
+    const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
     const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
     if (!hasSegmentCells && q < 0) {
-      setPair(cache.pool, previous, symbol, 0);
+      if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
       continue;
     }
-    // This word overrides cells: patch a copy of the slot's matrix into a new pool matrix.
-    const patched = cache.poolCount++;
-    setPair(cache.pool, previous, symbol, patched);
+    // This word overrides cells: patch a copy of the slot's matrix into the pair's pool matrix,
+    // or into this step's own matrix when the place is taken.
+    const patched = free ? 1 + place / 4 : 1 + cache.poolSize + t;
+    if (free) setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
     const logs = cache.previousLog;
     const exps = cache.previousExp;
     const out = patched * KK;
