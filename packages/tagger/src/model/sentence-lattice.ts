@@ -121,6 +121,12 @@ type Cache = {
   sentence: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
   pairSymbols: Uint8Array;
+  /**
+   * A Bloom filter over the (previous symbol, symbol) pairs of `pairIndex` (Bloom 1970,
+   * "Space/time trade-offs in hash coding with allowable errors", CACM 13(7); two hash functions):
+   * a pair it rejects is certainly absent, so most steps skip the large index.
+   */
+  pairFilter: Uint32Array;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
@@ -198,6 +204,7 @@ function createCache(model: TaggerModel): Cache {
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
   const pairSymbols = new Uint8Array(S);
+  const pairFilter = new Uint32Array(PAIR_FILTER_WORDS);
   const table = parameters.contextEmission;
   if (table !== null && model.segmentStarts !== null) {
     // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
@@ -251,6 +258,7 @@ function createCache(model: TaggerModel): Cache {
       const context = Math.floor(row / K);
       if (context > K) {
         pairSymbols[symbol] = 1;
+        addToFilter(pairFilter, context - K - 1, symbol);
         const found = getPair(pairIndex, context - K - 1, symbol, -1);
         if (found < 0) {
           setPair(pairIndex, context - K - 1, symbol, pairSizes.length);
@@ -294,6 +302,7 @@ function createCache(model: TaggerModel): Cache {
     poolSize: poolSizeFor(K),
     sentence: 0,
     pairSymbols,
+    pairFilter,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
     previousCount: 0,
@@ -428,6 +437,37 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   return entry;
 }
 
+/** Words of the pair filter: 2^20 bits, 128 KiB. */
+const PAIR_FILTER_WORDS = 1 << 15;
+
+function firstHash(previous: number, symbol: number): number {
+  let h = Math.imul(previous ^ 0x27d4eb2d, 0x85ebca6b) ^ Math.imul(symbol, 0xcc9e2d51);
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x7feb352d);
+  return h ^ (h >>> 15);
+}
+
+function secondHash(first: number): number {
+  const g = Math.imul(first ^ 0x165667b1, 0x846ca68b);
+  return g ^ (g >>> 16);
+}
+
+function addToFilter(filter: Uint32Array, previous: number, symbol: number): void {
+  const h = firstHash(previous, symbol);
+  const a = h >>> 12;
+  const b = secondHash(h) >>> 12;
+  filter[a >>> 5] |= 1 << (a & 31);
+  filter[b >>> 5] |= 1 << (b & 31);
+}
+
+function inFilter(filter: Uint32Array, previous: number, symbol: number): boolean {
+  const h = firstHash(previous, symbol);
+  const a = h >>> 12;
+  if ((filter[a >>> 5] & (1 << (a & 31))) === 0) return false;
+  const b = secondHash(h) >>> 12;
+  return (filter[b >>> 5] & (1 << (b & 31))) !== 0;
+}
+
 /** The pool place of a (previous symbol, symbol) pair. */
 function poolPlace(previous: number, symbol: number, mask: number): number {
   let h = Math.imul(previous, 0x9e3779b1) ^ Math.imul(symbol ^ 0x5bd1e995, 0x85ebca6b);
@@ -553,7 +593,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const last = offsets[symbol + 1];
     // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
     const hasSegmentCells = first < last && cells[first] < KK;
-    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
+    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
     if (!hasSegmentCells && !maybePair) continue;
     const place = 4 * poolPlace(previous, symbol, poolMask);
     if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
