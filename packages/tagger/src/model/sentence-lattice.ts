@@ -530,9 +530,11 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const entries = lattice.rows;
   for (let t = 0; t < T; t++) entries[t] = wordEntry(model, cache, words[t], t === 0);
   const rows = cache.wordRows;
+  const W = 2 * K + 1;
+  // Symbols first: a loop of independent loads, so the rows' cache misses overlap.
+  for (let t = 0; t < T; t++) symbols[t] = rows[entries[t] * W];
   for (let t = 0; t < T; t++) {
-    const at = entries[t] * (2 * K + 1);
-    symbols[t] = rows[at];
+    const at = entries[t] * W;
     for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
       logEmissions[to + k] = rows[from + k];
       emissions[to + k] = rows[from + K + k];
