@@ -1,5 +1,5 @@
 import { contextEmissionLogRatio } from "../estimation/context-emissions";
-import { addCount, createCountTable, findEntry, getCount, type CountTable } from "../estimation/count-table";
+import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
@@ -7,7 +7,7 @@ import { clusterOf } from "../estimation/brown-clusters";
 import { addEmissionAdjustments } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
-import { createSuffixTrie, suffixRatioRow, type SuffixTrie } from "./suffix-trie";
+import { addNodeLogRatio, createSuffixTrie, suffixNode, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
 import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
@@ -41,12 +41,17 @@ const MAX_PREVIOUS_NUMBERS = 1 << 22;
 const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PREVIOUS_NUMBERS / (K * K)));
 /**
  * Patched step matrices, one per (previous symbol, symbol) pair whose word overrides cells, are
- * kept in a pool bounded by its size (K² numbers each, two arrays), which starts afresh when full;
- * the pairs seen without overrides are remembered too, up to POOL_PAIRS of them.
+ * kept in a direct-mapped pool (each pair has one place, chosen by hashing, where it replaces the
+ * pair there before it) bounded by its size (K² numbers each, two arrays); small enough that its
+ * index stays in the processor's caches. A pair that overrides no cell is remembered there too.
  */
-const MAX_POOL_NUMBERS = 1 << 21;
-const poolLimit = (K: number): number => Math.max(256, Math.floor(MAX_POOL_NUMBERS / (K * K)));
-const POOL_PAIRS = 1 << 18;
+const MAX_POOL_NUMBERS = 1 << 18;
+/** Pool places: the largest power of two within MAX_POOL_NUMBERS, at least 256. */
+function poolSizeFor(K: number): number {
+  let size = 256;
+  while (2 * size * K * K <= MAX_POOL_NUMBERS) size *= 2;
+  return size;
+}
 
 /** The lattice of the last sentence built (buffers reused from sentence to sentence). */
 export type SentenceLattice = {
@@ -72,6 +77,8 @@ export type SentenceLattice = {
   stepIndex: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
+  /** Emission row of each token in the model cache (see Cache.wordRows). */
+  rows: Int32Array;
   /** Buffers of the Viterbi pass over this lattice, and its path (T entries used). */
   viterbi: ViterbiWorkspace;
   path: Int32Array;
@@ -85,33 +92,43 @@ type Cache = {
    * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
    * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
    * A symbol's own row serves every word read as that symbol without a suffix ratio; the others
-   * have one row per (symbol, suffix row of the trie).
+   * have one row per (symbol, suffix trie node).
    */
   wordRows: Float64Array;
   rowCount: number;
   /** Row of each symbol's plain scores, or −1. */
   symbolRows: Int32Array;
-  /** (symbol, suffix row) → emission row. */
+  /** (symbol, suffix trie node) → emission row. */
   suffixRows: PairTable;
   previousSlot: Int32Array;
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
   /**
-   * The same with the context-free context-emission ratio added, and its exp: matrices
-   * 1..patches−1 are the pool of patched matrices (matrix 0 holds the plain transitions of models
-   * without previous-word or context tables), slot s is matrix patches + s.
+   * The same with the context-free context-emission ratio added, and its exp: matrix 0 holds the
+   * plain transitions of models without previous-word or context tables, matrices 1..poolSize
+   * the pool of patched matrices (place h is matrix 1 + h), matrices poolSize + 1 + t this
+   * sentence's step t when its pool place is taken by a pair this sentence uses, and slot s is
+   * matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
   patches: number;
   /**
-   * (previous symbol, symbol) → the pool matrix of that step, or 0 when the pair overrides no
-   * cell (the previous symbol's slot matrix serves); poolCount is the next free pool matrix.
+   * The pool's places, 4 ints each: previous symbol + 1 (0 = empty), symbol, the pair's matrix
+   * (0 when the pair overrides no cell: the previous symbol's slot matrix serves), and the number
+   * of the sentence that last wrote the place (a place that sentence's steps read is not replaced).
    */
-  pool: PairTable;
-  poolCount: number;
+  poolKeys: Int32Array;
+  poolSize: number;
+  sentence: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
   pairSymbols: Uint8Array;
+  /**
+   * A Bloom filter over the (previous symbol, symbol) pairs of `pairIndex` (Bloom 1970,
+   * "Space/time trade-offs in hash coding with allowable errors", CACM 13(7); two hash functions):
+   * a pair it rejects is certainly absent, so most steps skip the large index.
+   */
+  pairFilter: Uint32Array;
   /** Per previous slot and state j: 1 when the context "previous word" has a row for state j. */
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
@@ -125,10 +142,10 @@ type Cache = {
   exceptionCells: Int32Array | null;
   exceptionRatios: Float64Array | null;
   /**
-   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous·S + symbol) →
+   * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous, symbol) →
    * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
    */
-  pairIndex: CountTable | null;
+  pairIndex: PairTable | null;
   pairStarts: Int32Array | null;
   pairStates: Int32Array | null;
   pairRatios: Float64Array | null;
@@ -164,6 +181,7 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     emissions: new Float64Array(capacity * K),
     end: null,
     stepIndex: new Int32Array(capacity),
+    rows: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
     viterbi: createViterbiWorkspace(K, capacity),
     path: new Int32Array(capacity),
@@ -183,11 +201,12 @@ function createCache(model: TaggerModel): Cache {
   let exceptionOffsets: Int32Array | null = null;
   let exceptionCells: Int32Array | null = null;
   let exceptionRatios: Float64Array | null = null;
-  let pairIndex: CountTable | null = null;
+  let pairIndex: PairTable | null = null;
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
   const pairSymbols = new Uint8Array(S);
+  const pairFilter = new Uint32Array(PAIR_FILTER_WORDS);
   const table = parameters.contextEmission;
   if (table !== null && model.segmentStarts !== null) {
     // For a context never seen with the current word, contextEmissionLogRatio is log(u/(n+u)).
@@ -217,7 +236,7 @@ function createCache(model: TaggerModel): Cache {
     exceptionRatios = new Float64Array(exceptionOffsets[S]);
     const fill = exceptionOffsets.slice(0, S);
     // Inside-segment contexts: group the entries by (previous symbol, symbol).
-    pairIndex = createCountTable();
+    pairIndex = createPairTable();
     const pairSizes: number[] = [];
     // Segment cells first, then the start cells (context K), within each symbol's list.
     for (const startCells of [false, true]) {
@@ -241,12 +260,12 @@ function createCache(model: TaggerModel): Cache {
       const context = Math.floor(row / K);
       if (context > K) {
         pairSymbols[symbol] = 1;
-        const pair = (context - K - 1) * S + symbol;
-        const found = findEntry(pairIndex, pair);
+        addToFilter(pairFilter, context - K - 1, symbol);
+        const found = getPair(pairIndex, context - K - 1, symbol, -1);
         if (found < 0) {
-          addCount(pairIndex, pair, pairSizes.length);
+          setPair(pairIndex, context - K - 1, symbol, pairSizes.length);
           pairSizes.push(1);
-        } else pairSizes[pairIndex.values[found]]++;
+        } else pairSizes[found]++;
       }
     }
     const pairStarts = new Int32Array(pairSizes.length + 1);
@@ -261,7 +280,7 @@ function createCache(model: TaggerModel): Cache {
       const context = Math.floor(row / K);
       if (context <= K) continue;
       const j = row % K;
-      const q = getCount(pairIndex, (context - K - 1) * S + symbol);
+      const q = getPair(pairIndex, context - K - 1, symbol, -1);
       const x = pairFill[q]++;
       pairStates[x] = j;
       pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
@@ -270,19 +289,22 @@ function createCache(model: TaggerModel): Cache {
   }
   return {
     K,
-    words: createWordTable(),
-    wordRows: new Float64Array(1024 * (2 * K + 1)),
+    // Room for about as many word types as the vocabulary has symbols before the first growth.
+    words: createWordTable(Math.min(MAX_WORD_ENTRIES, Math.max(1024, 2 * S))),
+    wordRows: new Float64Array(Math.min(MAX_WORD_ENTRIES, Math.max(1024, S)) * (2 * K + 1)),
     rowCount: 0,
     symbolRows: new Int32Array(S).fill(-1),
     suffixRows: createPairTable(),
     previousSlot: new Int32Array(S).fill(-1),
     previousBase: new Float64Array(64 * KK),
-    previousLog: new Float64Array(128 * KK),
-    previousExp: new Float64Array(128 * KK),
-    patches: 64,
-    pool: createPairTable(),
-    poolCount: 1,
+    previousLog: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
+    previousExp: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
+    patches: 1 + poolSizeFor(K) + 64,
+    poolKeys: new Int32Array(4 * poolSizeFor(K)),
+    poolSize: poolSizeFor(K),
+    sentence: 0,
     pairSymbols,
+    pairFilter,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
     previousCount: 0,
@@ -326,21 +348,15 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
 function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
   const found = findWord(cache.words, word, first);
   if (found >= 0) return found;
-  // Earlier tokens of the sentence have copied their rows already, so starting afresh is safe.
-  if (cache.words.size >= MAX_WORD_ENTRIES || cache.rowCount >= MAX_WORD_ENTRIES) {
-    clearWords(cache.words);
-    cache.rowCount = 0;
-    cache.symbolRows.fill(-1);
-    clearPairs(cache.suffixRows);
-  }
   const K = cache.K;
   const symbol = symbolOf(model.vocabulary, word, first);
   let suffix = -1;
+  let group = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
     // An unknown word's symbol is V + its class, and its suffix group that class (suffixGroupOf),
     // so the class tests run once; without classes the group is its capitalisation.
-    const group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
-    suffix = suffixRatioRow(cache.suffix, word, group);
+    group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
+    suffix = suffixNode(cache.suffix, word, group);
   }
   // A word the clustering knows adds its cluster's ratio (cluster-emissions.ts), so its row is its own.
   const clustered = model.clusters !== null && symbol >= model.vocabulary.words.length && clusterOf(model.clusters.clusters, word) >= 0;
@@ -355,8 +371,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     const out = row * W + 1;
     for (let k = 0; k < K; k++) rows[out + k] = emissions[symbol * K + k];
     if (suffix >= 0) {
-      const ratios = cache.suffix!.rows;
-      for (let k = 0, from = 2 * K * suffix + K; k < K; k++) rows[out + k] += ratios[from + k];
+      addNodeLogRatio(cache.suffix!, group, suffix, rows, out);
     }
     // The perceptron's weights depend on the symbol only, so rows stay shared with them.
     addEmissionAdjustments(model, word, first, symbol, rows, out);
@@ -431,7 +446,54 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   return entry;
 }
 
-/** Makes the pool hold `length` matrices, keeping its matrices and moving the slots behind it. */
+/** Words of the pair filter: 2^20 bits, 128 KiB. */
+const PAIR_FILTER_WORDS = 1 << 15;
+
+function firstHash(previous: number, symbol: number): number {
+  let h = Math.imul(previous ^ 0x27d4eb2d, 0x85ebca6b) ^ Math.imul(symbol, 0xcc9e2d51);
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x7feb352d);
+  return h ^ (h >>> 15);
+}
+
+function secondHash(first: number): number {
+  const g = Math.imul(first ^ 0x165667b1, 0x846ca68b);
+  return g ^ (g >>> 16);
+}
+
+function addToFilter(filter: Uint32Array, previous: number, symbol: number): void {
+  const h = firstHash(previous, symbol);
+  const a = h >>> 12;
+  const b = secondHash(h) >>> 12;
+  filter[a >>> 5] |= 1 << (a & 31);
+  filter[b >>> 5] |= 1 << (b & 31);
+}
+
+function inFilter(filter: Uint32Array, previous: number, symbol: number): boolean {
+  const h = firstHash(previous, symbol);
+  const a = h >>> 12;
+  if ((filter[a >>> 5] & (1 << (a & 31))) === 0) return false;
+  const b = secondHash(h) >>> 12;
+  return (filter[b >>> 5] & (1 << (b & 31))) !== 0;
+}
+
+/** The pool place of a (previous symbol, symbol) pair. */
+function poolPlace(previous: number, symbol: number, mask: number): number {
+  let h = Math.imul(previous, 0x9e3779b1) ^ Math.imul(symbol ^ 0x5bd1e995, 0x85ebca6b);
+  h ^= h >>> 15;
+  h = Math.imul(h, 0x2c1b3c6d);
+  h ^= h >>> 13;
+  return h & mask;
+}
+
+function setPlace(keys: Int32Array, place: number, previous: number, symbol: number, matrix: number, sentence: number): void {
+  keys[place] = previous + 1;
+  keys[place + 1] = symbol;
+  keys[place + 2] = matrix;
+  keys[place + 3] = sentence;
+}
+
+/** Makes room for `length` matrices before the slots, keeping the pool's and moving the slots behind. */
 function reservePatches(cache: Cache, length: number): void {
   if (cache.patches >= length) return;
   const KK = cache.K * cache.K;
@@ -439,8 +501,8 @@ function reservePatches(cache: Cache, length: number): void {
   const size = (patches + Math.max(cache.previousCount, 64)) * KK;
   const log = new Float64Array(size);
   const exp = new Float64Array(size);
-  log.set(cache.previousLog.subarray(0, cache.poolCount * KK));
-  exp.set(cache.previousExp.subarray(0, cache.poolCount * KK));
+  log.set(cache.previousLog.subarray(0, (1 + cache.poolSize) * KK));
+  exp.set(cache.previousExp.subarray(0, (1 + cache.poolSize) * KK));
   log.set(cache.previousLog.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   exp.set(cache.previousExp.subarray(cache.patches * KK, (cache.patches + cache.previousCount) * KK), patches * KK);
   cache.previousLog = log;
@@ -465,11 +527,23 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   lattice.length = T;
   lattice.end = cache.end;
   const { symbols, logEmissions, emissions, logStart, start } = lattice;
+  // Start afresh between sentences only (this one's tokens then all find their rows), at most
+  // T words and rows later.
+  if (cache.words.size + T > MAX_WORD_ENTRIES || cache.rowCount + T > MAX_WORD_ENTRIES) {
+    clearWords(cache.words);
+    cache.rowCount = 0;
+    cache.symbolRows.fill(-1);
+    clearPairs(cache.suffixRows);
+  }
+  // Two passes, so that the memory reads of one token's lookup and of the next token's overlap.
+  const entries = lattice.rows;
+  for (let t = 0; t < T; t++) entries[t] = wordEntry(model, cache, words[t], t === 0);
+  const rows = cache.wordRows;
+  const W = 2 * K + 1;
+  // Symbols first: a loop of independent loads, so the rows' cache misses overlap.
+  for (let t = 0; t < T; t++) symbols[t] = rows[entries[t] * W];
   for (let t = 0; t < T; t++) {
-    const entry = wordEntry(model, cache, words[t], t === 0);
-    const rows = cache.wordRows;
-    const at = entry * (2 * K + 1);
-    symbols[t] = rows[at];
+    const at = entries[t] * W;
     for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
       logEmissions[to + k] = rows[from + k];
       emissions[to + k] = rows[from + K + k];
@@ -478,7 +552,6 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const { parameters } = model;
   const contextTable = parameters.contextEmission;
   const segmentStarts = model.segmentStarts;
-  const S = model.statistics.symbols;
   const withContext = contextTable !== null && segmentStarts !== null;
   const offsets = cache.exceptionOffsets!;
   const cells = cache.exceptionCells!;
@@ -495,14 +568,15 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
   if (T < 2) return lattice;
-  // Start afresh between sentences only: the steps of this one point into the slots and the pool,
-  // which gains at most T − 1 matrices.
-  if (cache.poolCount + T > cache.patches && cache.patches < poolLimit(K)) reservePatches(cache, cache.poolCount + T);
-  if (cache.poolCount + T > cache.patches || cache.pool.size + T > POOL_PAIRS) {
-    clearPairs(cache.pool);
-    cache.poolCount = 1;
-    reservePatches(cache, T + 1);
+  // Room for this sentence's own patched steps; a new sentence number frees the pool's places.
+  reservePatches(cache, 1 + cache.poolSize + T);
+  if (++cache.sentence >= 0x3fffffff) {
+    cache.poolKeys.fill(0);
+    cache.sentence = 1;
   }
+  const poolKeys = cache.poolKeys;
+  const poolMask = cache.poolSize - 1;
+  // Start afresh between sentences only: the steps of this one point into the slots.
   if (cache.previousCount + T > previousLimit(K)) {
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
@@ -530,21 +604,29 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     const last = offsets[symbol + 1];
     // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
     const hasSegmentCells = first < last && cells[first] < KK;
-    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0;
+    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
     if (!hasSegmentCells && !maybePair) continue;
-    const pooled = getPair(cache.pool, previous, symbol, -1);
-    if (pooled >= 0) {
-      if (pooled > 0) stepIndex[t] = pooled;
+    const place = 4 * poolPlace(previous, symbol, poolMask);
+    if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
+      const pooled = poolKeys[place + 2];
+      if (pooled > 0) {
+        stepIndex[t] = pooled;
+        // This sentence reads the matrix now: keep the place until the next sentence.
+        poolKeys[place + 3] = cache.sentence;
+      }
       continue;
     }
-    const group = maybePair ? findEntry(cache.pairIndex!, previous * S + symbol) : -1;
-    if (!hasSegmentCells && group < 0) {
-      setPair(cache.pool, previous, symbol, 0);
+    // The place is free unless this sentence reads its matrix.
+    const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
+    const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
+    if (!hasSegmentCells && q < 0) {
+      if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
       continue;
     }
-    // This word overrides cells: patch a copy of the slot's matrix into a new pool matrix.
-    const patched = cache.poolCount++;
-    setPair(cache.pool, previous, symbol, patched);
+    // This word overrides cells: patch a copy of the slot's matrix into the pair's pool matrix,
+    // or into this step's own matrix when the place is taken.
+    const patched = free ? 1 + place / 4 : 1 + cache.poolSize + t;
+    if (free) setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
     const logs = cache.previousLog;
     const exps = cache.previousExp;
     const out = patched * KK;
@@ -564,8 +646,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
       exps[out + cell] = Math.exp(v);
     }
     // Inside-segment cells whose context (the previous word) was seen followed by this word.
-    if (group < 0) continue;
-    const q = cache.pairIndex!.values[group];
+    if (q < 0) continue;
     const pairStates = cache.pairStates!;
     const pairRatios = cache.pairRatios!;
     for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {

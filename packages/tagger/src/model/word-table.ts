@@ -81,7 +81,7 @@ export function insertWord(table: WordTable, word: string, first: boolean, value
   const h = hashWord(word, first);
   table.size++;
   const n = word.length;
-  if (2 * SLOT * table.size > table.slots.length) {
+  if (4 * SLOT * table.size > 3 * table.slots.length) {
     const old = table.slots;
     const slots = new Int32Array(2 * old.length);
     for (let s = 0; s < old.length; s += SLOT) if (old[s + 1] !== 0) slots.set(old.subarray(s, s + SLOT), freeSlot(slots, old[s]));
