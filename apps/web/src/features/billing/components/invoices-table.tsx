@@ -1,7 +1,8 @@
 import type { BillingInvoice } from "@tagloom/contracts";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, flexRender } from "@tanstack/react-table";
 import { useMemo } from "react";
 import { DataTable } from "@/components/ui/data-table";
+import { useDataTable } from "@/components/ui/use-data-table";
 import { cn } from "@/lib/cn";
 import { formatDay, formatMoney, invoiceStatusLabel } from "./format-billing";
 
@@ -25,6 +26,6 @@ export function InvoicesTable({ invoices }: { invoices: BillingInvoice[] }) {
     ],
     [],
   );
-  const table = useReactTable({ data: invoices, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+  const table = useDataTable({ data: invoices, columns, getRowId: (r) => r.id });
   return <DataTable table={table} flexRender={flexRender} caption="Invoices" />;
 }
