@@ -8,7 +8,7 @@
  * retrained every round), and scores entity F1 (CoNLL convention) on test.bio after every round.
  *
  * Strategies (Settles & Craven 2008, "An analysis of active learning strategies for sequence
- * labeling tasks", EMNLP, §3; every score from documentUncertainty, the product's code):
+ * labeling tasks", EMNLP, §3; every score from uncertaintyMeasures in src/model/uncertainty.ts):
  *   random                    the seed's shuffled order
  *   mean-token-entropy        token entropy averaged over the document (§3.1 TE; the product's old key)
  *   total-token-entropy       token entropy summed over the document (§3.1 TTE; favours long documents)
@@ -49,7 +49,7 @@
 import { readFileSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { type ColumnDocument, type DocumentUncertainty, createRng, documentUncertainty, evaluateModel, parseColumnText, toIob2, trainTagger } from "../src/index";
+import { type ColumnDocument, type UncertaintyMeasures, createRng, evaluateModel, parseColumnText, toIob2, trainTagger, uncertaintyMeasures } from "../src/index";
 
 const here = fileURLToPath(new URL(".", import.meta.url));
 const shared = process.env.TAGLOOM_SHARED ?? resolve(here, "../../../../shared");
@@ -120,7 +120,7 @@ function shuffled(n: number, seed: number): number[] {
   return order;
 }
 
-type Score = (u: DocumentUncertainty) => number;
+type Score = (u: UncertaintyMeasures) => number;
 const measures: Record<string, Score> = {
   "mean-token-entropy": (u) => u.meanEntropy,
   "total-token-entropy": (u) => u.totalEntropy,
@@ -174,7 +174,7 @@ function curve(strategy: Strategy, seed: number): Point[] {
     const n = pool.length;
     const scored = open
       .map((i) => {
-        let score = strategy.score!(documentUncertainty(model, pool[i]!.sentences.map((s) => s.words)));
+        let score = strategy.score!(uncertaintyMeasures(model, pool[i]!.sentences.map((s) => s.words)));
         if (strategy.density) {
           let sum = 0;
           for (const j of open) if (j !== i) sum += similarity[i * n + j]!;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { trainTagger } from "./tagger";
 import { tinyDocuments } from "../testing/tiny-corpus";
-import { documentUncertainty } from "./uncertainty";
+import { documentUncertainty, uncertaintyMeasures } from "./uncertainty";
 
 describe("documentUncertainty", () => {
   const { model } = trainTagger(tinyDocuments);
@@ -20,9 +20,16 @@ describe("documentUncertainty", () => {
       expect(u.leastConfidence).toBeGreaterThanOrEqual(0);
       expect(u.leastConfidence).toBeLessThanOrEqual(1);
     }
-    const empty = documentUncertainty(model, [[]]);
+    expect(documentUncertainty(model, [[]])).toEqual({ meanEntropy: 0, leastConfidence: 0, tokens: 0 });
+    const empty = uncertaintyMeasures(model, [[]]);
     expect(empty.tokens).toBe(0);
     for (const value of Object.values(empty)) expect(value).toBe(0);
+    // The full measures repeat the product's three numbers exactly.
+    for (const words of [familiar, strange]) {
+      const full = uncertaintyMeasures(model, words);
+      const { meanEntropy, leastConfidence, tokens } = full;
+      expect({ meanEntropy, leastConfidence, tokens }).toEqual(documentUncertainty(model, words));
+    }
   });
 
   it("matches token entropy and least confidence worked by hand on a two-tag model", () => {
@@ -66,7 +73,7 @@ describe("documentUncertainty", () => {
       const z = counts.reduce((a, b) => a + b, 0);
       return -counts.reduce((h, n) => h + (n / z) * Math.log(n / z), 0);
     };
-    const one = documentUncertainty(small, [["a", "b"]]);
+    const one = uncertaintyMeasures(small, [["a", "b"]]);
     expect(one.sequenceEntropy).toBeCloseTo(pathEntropy([64, 288, 36, 81]), 12);
     expect(one.spans).toBe(1);
     expect(one.spanUncertaintyMean).toBeCloseTo(117 / 469, 12);
@@ -77,7 +84,7 @@ describe("documentUncertainty", () => {
     expect(one.spanErrorDensity).toBeCloseTo(217 / 469 / 2, 12);
     // "b" alone: paths B-X (4/24) and O (9/24); the best tagging is O, so no span is predicted and
     // an entity begins at "b" with 4/13. Sums add over sentences, the density divides by 3 tokens.
-    const two = documentUncertainty(small, [["a", "b"], [], ["b"]]);
+    const two = uncertaintyMeasures(small, [["a", "b"], [], ["b"]]);
     expect(two.sequenceEntropy).toBeCloseTo(pathEntropy([64, 288, 36, 81]) + pathEntropy([4, 9]), 12);
     expect(two.totalEntropy).toBeCloseTo(3 * two.meanEntropy, 12);
     expect(two.leastConfidenceSum).toBeCloseTo(181 / 469 + 4 / 13, 12);
@@ -92,14 +99,14 @@ describe("documentUncertainty", () => {
     // Subadditivity of entropy, H(Y_1..Y_T) ≤ Σ_t H(Y_t) (Cover & Thomas, "Elements of Information
     // Theory", 2nd ed., Theorem 2.6.6), with equality only when the tags are independent.
     for (const words of [["Taven", "Orrick", "lives", "in", "Velmora", "."], ["Qwerty", "Zxcv", "Asdf", "Uiop", "Hjkl"]]) {
-      const u = documentUncertainty(model, [words]);
+      const u = uncertaintyMeasures(model, [words]);
       expect(u.sequenceEntropy).toBeGreaterThanOrEqual(0);
       expect(u.sequenceEntropy!).toBeLessThanOrEqual(u.totalEntropy + 1e-9);
       expect(u.spanErrorDensity).toBeCloseTo(u.expectedSpanErrors / u.tokens, 12);
     }
     // A second-order model's posterior is a chain over tag pairs: no sequence entropy, the rest as usual.
     const { model: trigram } = trainTagger(tinyDocuments, { order: 2 });
-    const u = documentUncertainty(trigram, strange);
+    const u = uncertaintyMeasures(trigram, strange);
     expect(u.sequenceEntropy).toBeNull();
     expect(u.tokens).toBe(5);
     expect(u.meanEntropy).toBeGreaterThan(0);

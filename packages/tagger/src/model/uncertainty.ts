@@ -4,13 +4,17 @@ import { computePosteriors } from "../kernels/forward-backward";
 import { tagSentence } from "./tagger";
 import type { TaggerModel } from "./tagger-model";
 
-/** Uncertainty of a document under a model, for choosing what to annotate next. */
+/** Uncertainty of a document under a model, for choosing what to annotate next (the product's ranking reads meanEntropy). */
 export type DocumentUncertainty = {
   /** Mean over tokens of the entropy of the posterior marginals, in nats. */
   readonly meanEntropy: number;
   /** Mean over sentences of 1 − P(best tag sequence | words). */
   readonly leastConfidence: number;
   readonly tokens: number;
+};
+
+/** {@link DocumentUncertainty} and the other measures the active-learning bench compares. */
+export type UncertaintyMeasures = DocumentUncertainty & {
   /** Sum over tokens of the entropy of the posterior marginals, in nats. */
   readonly totalEntropy: number;
   /** Sum over sentences of 1 − P(best tag sequence | words): the expected number of sentences whose best tagging is wrong somewhere. */
@@ -40,7 +44,7 @@ export type DocumentUncertainty = {
   readonly spanErrorDensity: number;
 };
 
-const EMPTY: DocumentUncertainty = {
+const EMPTY: UncertaintyMeasures = {
   meanEntropy: 0,
   leastConfidence: 0,
   tokens: 0,
@@ -114,9 +118,10 @@ function firstOrderSentence(model: TaggerModel, words: readonly string[], s: num
  * IOB models, measures on the predicted spans: 1 − the span's (calibrated) confidence, averaged
  * and at its largest, and the expected number of span errors, wrong spans plus missed entities
  * (expectedSpanErrors, and per token spanErrorDensity). Deterministic; empty sentences are
- * skipped; a document without tokens scores 0 everywhere.
+ * skipped; a document without tokens scores 0 everywhere. About twice the work of
+ * {@link documentUncertainty}, which computes the first three fields alone.
  */
-export function documentUncertainty(model: TaggerModel, sentences: readonly (readonly string[])[]): DocumentUncertainty {
+export function uncertaintyMeasures(model: TaggerModel, sentences: readonly (readonly string[])[]): UncertaintyMeasures {
   const K = model.tags.length;
   const begins = beginStates(model);
   const firstOrder = model.config.order === 1;
@@ -181,4 +186,34 @@ export function documentUncertainty(model: TaggerModel, sentences: readonly (rea
     expectedSpanErrors,
     spanErrorDensity: expectedSpanErrors / tokens,
   };
+}
+
+/**
+ * Token entropy averaged over the document and least confidence averaged over sentences, as in
+ * {@link uncertaintyMeasures} (the same numbers) without the other measures: what the suggestion
+ * job stores and the "Most uncertain" view ranks by (bench/active-learning.ts compares the rest).
+ */
+export function documentUncertainty(model: TaggerModel, sentences: readonly (readonly string[])[]): DocumentUncertainty {
+  const K = model.tags.length;
+  let entropySum = 0;
+  let tokens = 0;
+  let confidenceSum = 0;
+  let counted = 0;
+  sentences.forEach((words, s) => {
+    if (words.length === 0) return;
+    const { posteriors, logLikelihood } = sentencePosteriors(model, words, s);
+    for (let t = 0; t < words.length; t++) {
+      let h = 0;
+      for (let k = 0; k < K; k++) {
+        const p = posteriors[t * K + k];
+        if (p > 0) h -= p * Math.log(p);
+      }
+      entropySum += h;
+    }
+    tokens += words.length;
+    const { logProbability } = decodeSentence(model, words, s);
+    confidenceSum += 1 - Math.min(1, Math.exp(logProbability - logLikelihood));
+    counted++;
+  });
+  return { meanEntropy: tokens === 0 ? 0 : entropySum / tokens, leastConfidence: counted === 0 ? 0 : confidenceSum / counted, tokens };
 }
