@@ -84,6 +84,8 @@ describe("suggestions in the browser", () => {
     await signIn(page, team.boss, `/o/${team.orgId}/corpora/${team.corpusId}`);
     await page.getByRole("navigation", { name: "Corpus" }).getByRole("link", { name: "Most uncertain" }).click();
     await page.getByText(/mean token entropy/).first().waitFor();
+    // The screen says what the ranking is measured to buy, not only what it ranks by.
+    await page.getByTestId("uncertain-evidence").getByText(/random picks for the same number of words labelled/).waitFor();
     const rows = page.getByRole("table", { name: "Most uncertain documents" }).locator("tbody tr");
     await rows.first().waitFor();
     expect(await rows.count()).toBe(14);

@@ -9,7 +9,7 @@ export * from "./metrics";
 export { trainTagger, tagSentence, tagDocument, type TrainOptions, type TaggedChunk, type TaggedSentenceResult } from "./model/tagger";
 export type { TaggerModel, DataSummary } from "./model/tagger-model";
 export { DEFAULT_TRAINING_CONFIG, resolveTrainingConfig, type TrainingConfig, type SmoothingConfig, type TransitionPrior } from "./estimation/training-config";
-export { documentUncertainty, type DocumentUncertainty } from "./model/uncertainty";
+export { documentUncertainty, uncertaintyMeasures, type DocumentUncertainty, type UncertaintyMeasures } from "./model/uncertainty";
 export { serializeModel, loadModel, ModelFormatError, MODEL_FORMAT, MODEL_SCHEMA_VERSION, type SerializedModel } from "./model/serialize";
 export { evaluateModel, type Evaluation } from "./evaluation/evaluation";
 export { crossValidate, planFolds, type CrossValidationResult, type FoldScore, type FoldUnit } from "./evaluation/cross-validation";

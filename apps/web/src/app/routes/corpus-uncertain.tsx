@@ -24,8 +24,13 @@ export function CorpusUncertainRoute() {
     <div className="space-y-4">
       <p className="max-w-3xl text-sm text-ink-700">
         Ranked by the suggester (version {r.tagger.version})'s <strong>mean token entropy</strong>: for each word, how spread its posterior probability is over
-        the tags, averaged over the document (in nats; 0 means sure of every word). Higher means the tagger is less sure, so labelling it teaches the tagger
-        more. Spans under {Math.round(r.threshold * 100)}% confidence count as low-confidence. {countOf(r.considered, "document")} without gold {r.considered === 1 ? "is" : "are"} scored.
+        the tags, averaged over the document (in nats; 0 means sure of every word). Higher means the tagger is less sure. Spans under{" "}
+        {Math.round(r.threshold * 100)}% confidence count as low-confidence. {countOf(r.considered, "document")} without gold {r.considered === 1 ? "is" : "are"} scored.
+      </p>
+      <p className="max-w-3xl text-sm text-ink-700" data-testid="uncertain-evidence">
+        What this ranking buys is small. In our simulation on a public Wikipedia corpus, labelling the top of this list gave a tagger about 0.8 F1 points better
+        than random picks for the same number of words labelled (in 7 of 8 runs), and slightly less than random per document labelled, since short documents rank high. None of the other
+        measures we tried (sums over the document, sequence entropy, span confidence, similarity weighting) did clearly better, so treat the order as a hint.
       </p>
       {r.items.length === 0 ? (
         <EmptyState title="Nothing to rank yet">Documents appear here once the suggester has tagged them; documents with gold are left out.</EmptyState>
