@@ -94,6 +94,8 @@ describe("the demo, role by role", () => {
     await page.getByRole("heading", { name: /^Disagreements \(\d+\)$/ }).waitFor();
     // Each disagreement: take the first annotator's version.
     const items = page.getByRole("listitem").filter({ has: page.getByRole("radio") });
+    // count() does not wait: the heading can paint a moment before the disagreements' choices.
+    await items.first().waitFor();
     const n = await items.count();
     expect(n).toBeGreaterThan(0);
     for (let i = 0; i < n; i++) await items.nth(i).getByRole("radio").first().check();
