@@ -30,7 +30,7 @@ import {
 import { findBatch, findBatchesByIds } from "./batches.repository";
 import { getTokenBounds, primeTokenBounds } from "./document-cache";
 import { getAssignmentFacts, getRecentTypeIndex } from "./save-caches";
-import { type TypeIndex, indexTypes, namedSpans, pendingSuggestions, plainSpans, storedSpans } from "./span-mapping";
+import { type TypeIndex, indexTypes, namedSpans, pendingSuggestions, plainSpans, sameStoredSpans, storedSpans } from "./span-mapping";
 
 /** The signed-in member as the annotation services need it. */
 export type MemberContext = { organizationId: string; userId: string; role: Role };
@@ -101,6 +101,11 @@ function spanFieldError(problem: { index: number; message: string }, field: stri
  * answers 409 with what the server holds (the client reloads it and shows what conflicted); a
  * submitted or reviewed assignment answers 409 too. Of several saves naming the same version
  * exactly one wins (a conditional UPDATE).
+ *
+ * A save whose answer was lost after it was stored comes again naming the same version with the
+ * same spans: when the stored version is the very next one and holds exactly what is sent, that
+ * version is the answer (200, nothing bumped), so the client carries on as if the first answer
+ * had arrived instead of reloading what it already has.
  */
 export async function saveAssignment(
   member: MemberContext,
@@ -144,6 +149,9 @@ export async function saveAssignment(
   if (!current) throw new NotFoundError("assignment");
   if (!isEditable(current)) {
     throw new ConflictError("This assignment has been submitted and can no longer be changed.", staleDetails(current, index), "assignment_locked");
+  }
+  if (current.version === input.version + 1 && sameStoredSpans(current.spans, spans) && sameStoredSpans(current.dismissedSuggestions, dismissed)) {
+    return { version: current.version, state: current.state, updatedAt: iso(current.updatedAt)! };
   }
   throw new ConflictError(
     `These spans changed since you loaded them: the saved version is ${current.version}, yours was ${input.version}.`,

@@ -36,6 +36,16 @@ export function storedSpans(spans: ReadonlyArray<Span & { origin?: AnnotatedSpan
     });
 }
 
+const storedKey = (s: StoredSpan) => `${s.start}:${s.end}:${s.typeId}:${s.origin ?? "human"}`;
+
+/** True when two lists of stored spans hold the same spans (in any order). */
+export function sameStoredSpans(a: readonly StoredSpan[], b: readonly StoredSpan[]): boolean {
+  if (a.length !== b.length) return false;
+  const x = a.map(storedKey).sort();
+  const y = b.map(storedKey).sort();
+  return x.every((k, i) => k === y[i]);
+}
+
 const key = (s: { start: number; end: number; type: string }) => `${s.start}:${s.end}:${s.type}`;
 
 /** The suggestions still to decide: neither dismissed nor already marked as a span. */
