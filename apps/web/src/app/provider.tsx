@@ -2,16 +2,23 @@ import { QueryClientProvider } from "@tanstack/react-query";
 import { type ReactNode, useEffect, useState } from "react";
 import { ToastProvider, useToast } from "@/components/ui/toaster";
 import { onApiError } from "@/lib/api-client";
-import { createQueryClient } from "@/lib/query-client";
+import { createQueryClient, isOwnError } from "@/lib/query-client";
 
-/** Shows a toast for errors no screen can handle itself: the network and the server's own faults. */
-function ApiErrorToasts() {
+/**
+ * Shows a toast for the network, the server's own faults and rate limits, unless the error belongs
+ * to a mutation whose screen shows it already (`ownErrorMeta`): one message, in one place.
+ */
+export function ApiErrorToasts() {
   const toast = useToast();
   useEffect(
     () =>
       onApiError((err) => {
-        if (err.status === 0 || err.status >= 500) toast.show(err.message, "error");
-        if (err.status === 429) toast.show(err.message, "error");
+        if (!(err.status === 0 || err.status >= 500 || err.status === 429)) return;
+        // The client reports the error before the failing request's promise chain reaches the
+        // mutation cache; that chain runs on microtasks, so it has finished by the next task.
+        setTimeout(() => {
+          if (!isOwnError(err)) toast.show(err.message, "error");
+        }, 0);
       }),
     [toast],
   );

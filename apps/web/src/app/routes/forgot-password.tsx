@@ -9,10 +9,11 @@ import { Notice } from "@/components/ui/card";
 import { Field, Input } from "@/components/ui/field";
 import { paths } from "@/config/paths";
 import { requestPasswordReset } from "@/features/auth/api/auth-mutations";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export function ForgotPasswordRoute() {
   const form = useForm<{ email: string }>({ resolver: zodResolver(passwordResetRequestSchema), defaultValues: { email: "" } });
-  const request = useMutation({ mutationFn: (email: string) => requestPasswordReset(email) });
+  const request = useMutation({ meta: ownErrorMeta, mutationFn: (email: string) => requestPasswordReset(email) });
   const { errors } = form.formState;
   return (
     <AuthLayout title="Reset your password" subtitle="We will e-mail you a link to choose a new one.">

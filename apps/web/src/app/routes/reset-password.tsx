@@ -10,6 +10,7 @@ import { Notice } from "@/components/ui/card";
 import { Field, Input } from "@/components/ui/field";
 import { paths } from "@/config/paths";
 import { confirmPasswordReset } from "@/features/auth/api/auth-mutations";
+import { ownErrorMeta } from "@/lib/query-client";
 
 const schema = z
   .object({ password: passwordSchema, repeat: z.string() })
@@ -19,7 +20,7 @@ export function ResetPasswordRoute() {
   const [params] = useSearchParams();
   const token = params.get("token") ?? "";
   const form = useForm<z.infer<typeof schema>>({ resolver: zodResolver(schema), defaultValues: { password: "", repeat: "" } });
-  const reset = useMutation({ mutationFn: (password: string) => confirmPasswordReset(token, password) });
+  const reset = useMutation({ meta: ownErrorMeta, mutationFn: (password: string) => confirmPasswordReset(token, password) });
   const { errors } = form.formState;
   if (!token) {
     return (

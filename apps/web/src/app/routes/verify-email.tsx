@@ -6,12 +6,13 @@ import { Notice, Skeleton } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { verifyEmail } from "@/features/auth/api/auth-mutations";
 import { useQueryClient } from "@tanstack/react-query";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export function VerifyEmailRoute() {
   const [params] = useSearchParams();
   const token = params.get("token") ?? "";
   const qc = useQueryClient();
-  const verify = useMutation({ mutationFn: verifyEmail, onSuccess: () => qc.invalidateQueries({ queryKey: ["me"] }) });
+  const verify = useMutation({ meta: ownErrorMeta, mutationFn: verifyEmail, onSuccess: () => qc.invalidateQueries({ queryKey: ["me"] }) });
   const { mutate } = verify;
   useEffect(() => {
     if (token) mutate(token);

@@ -18,13 +18,19 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   return (
     <ToastContext.Provider value={value}>
       {children}
-      <div aria-live="polite" className="pointer-events-none fixed right-4 bottom-4 z-50 flex w-80 flex-col gap-2">
+      {/* Phones: over the sticky header's band at the top (only the newest toast), never over the
+          page's forms and their notices; wider screens: the bottom-right corner. */}
+      <div
+        aria-live="polite"
+        data-testid="toast-region"
+        className="pointer-events-none fixed inset-x-2 top-1 z-50 flex flex-col gap-2 sm:inset-x-auto sm:top-auto sm:right-4 sm:bottom-4 sm:w-80 max-sm:[&>*:not(:last-child)]:hidden"
+      >
         {toasts.map((t) => (
           <div
             key={t.id}
             role={t.tone === "error" ? "alert" : "status"}
             className={cn(
-              "pointer-events-auto rounded-md border px-4 py-3 text-sm shadow-md",
+              "pointer-events-auto rounded-md border px-3 py-2 text-sm shadow-md sm:px-4 sm:py-3",
               t.tone === "error" && "border-rust-500/40 bg-white text-rust-500",
               t.tone === "success" && "border-moss-500/40 bg-white text-moss-500",
               t.tone === "info" && "border-ink-100 bg-white text-ink-800",

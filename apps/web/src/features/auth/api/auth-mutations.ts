@@ -2,6 +2,7 @@ import type { Me, SignInInput, SignUpInput } from "@tagloom/contracts";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { meQueryOptions } from "./get-me";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const signIn = (input: SignInInput) => api.post<Me>("/auth/sign-in", input);
 export const signUp = (input: SignUpInput) => api.post<Me & { organizationId: string }>("/auth/sign-up", input);
@@ -22,12 +23,12 @@ function useSessionChange() {
 
 export function useSignIn() {
   const onChange = useSessionChange();
-  return useMutation({ mutationFn: signIn, onSuccess: (me) => onChange(me) });
+  return useMutation({ meta: ownErrorMeta, mutationFn: signIn, onSuccess: (me) => onChange(me) });
 }
 
 export function useSignUp() {
   const onChange = useSessionChange();
-  return useMutation({ mutationFn: signUp, onSuccess: (me) => onChange({ user: me.user, memberships: me.memberships }) });
+  return useMutation({ meta: ownErrorMeta, mutationFn: signUp, onSuccess: (me) => onChange({ user: me.user, memberships: me.memberships }) });
 }
 
 export function useSignOut() {

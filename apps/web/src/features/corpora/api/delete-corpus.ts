@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corporaKey, corpusKey } from "./keys";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const deleteCorpus = (orgId: string, corpusId: string, confirmName: string) =>
   api.delete<void>(`/orgs/${orgId}/corpora/${corpusId}`, { body: { confirmName } });
@@ -9,6 +10,7 @@ export const deleteCorpus = (orgId: string, corpusId: string, confirmName: strin
 export function useDeleteCorpus(orgId: string, corpusId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: (confirmName: string) => deleteCorpus(orgId, corpusId, confirmName),
     onSuccess: () => {
       qc.removeQueries({ queryKey: corpusKey(orgId, corpusId) });

@@ -2,6 +2,7 @@ import type { EntityType, UpdateEntityTypeInput } from "@tagloom/contracts";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corpusKey } from "./keys";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const updateEntityType = (orgId: string, corpusId: string, typeId: string, input: UpdateEntityTypeInput) =>
   api.patch<EntityType>(`/orgs/${orgId}/corpora/${corpusId}/entity-types/${typeId}`, input);
@@ -10,6 +11,7 @@ export const updateEntityType = (orgId: string, corpusId: string, typeId: string
 export function useUpdateEntityType(orgId: string, corpusId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: ({ typeId, input }: { typeId: string; input: UpdateEntityTypeInput }) => updateEntityType(orgId, corpusId, typeId, input),
     onSettled: () => qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId) }),
   });

@@ -2,6 +2,7 @@ import type { SetSplitInput, SetSplitResult } from "@tagloom/contracts";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corpusKey } from "./keys";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const setSplit = (orgId: string, corpusId: string, input: SetSplitInput) =>
   api.post<SetSplitResult>(`/orgs/${orgId}/corpora/${corpusId}/documents/split`, input);
@@ -10,6 +11,7 @@ export const setSplit = (orgId: string, corpusId: string, input: SetSplitInput) 
 export function useSetSplit(orgId: string, corpusId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: (input: SetSplitInput) => setSplit(orgId, corpusId, input),
     onSettled: () => qc.invalidateQueries({ queryKey: corpusKey(orgId, corpusId) }),
   });

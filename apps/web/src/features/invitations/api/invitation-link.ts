@@ -1,6 +1,7 @@
 import type { InvitationPreview } from "@tagloom/contracts";
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const getInvitationPreview = (token: string) => api.get<InvitationPreview>(`/invitations/${encodeURIComponent(token)}`);
 export const acceptInvitation = (token: string) => api.post<{ organizationId: string }>(`/invitations/${encodeURIComponent(token)}/accept`);
@@ -14,5 +15,5 @@ export function useInvitationPreview(token: string) {
 
 export function useAcceptInvitation() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: acceptInvitation, onSuccess: () => qc.invalidateQueries({ queryKey: ["me"] }) });
+  return useMutation({ meta: ownErrorMeta, mutationFn: acceptInvitation, onSuccess: () => qc.invalidateQueries({ queryKey: ["me"] }) });
 }

@@ -1,6 +1,7 @@
 import type { CreateInvitationInput, Invitation, Page } from "@tagloom/contracts";
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const invitationsQueryOptions = (orgId: string) =>
   queryOptions({ queryKey: ["orgs", orgId, "invitations"], queryFn: () => api.get<Page<Invitation>>(`/orgs/${orgId}/invitations`) });
@@ -16,15 +17,15 @@ function useInvalidate(orgId: string) {
 
 export function useCreateInvitation(orgId: string) {
   const onSettled = useInvalidate(orgId);
-  return useMutation({ mutationFn: (input: CreateInvitationInput) => api.post<Invitation>(`/orgs/${orgId}/invitations`, input), onSettled });
+  return useMutation({ meta: ownErrorMeta, mutationFn: (input: CreateInvitationInput) => api.post<Invitation>(`/orgs/${orgId}/invitations`, input), onSettled });
 }
 
 export function useResendInvitation(orgId: string) {
   const onSettled = useInvalidate(orgId);
-  return useMutation({ mutationFn: (id: string) => api.post<Invitation>(`/orgs/${orgId}/invitations/${id}/resend`), onSettled });
+  return useMutation({ meta: ownErrorMeta, mutationFn: (id: string) => api.post<Invitation>(`/orgs/${orgId}/invitations/${id}/resend`), onSettled });
 }
 
 export function useRevokeInvitation(orgId: string) {
   const onSettled = useInvalidate(orgId);
-  return useMutation({ mutationFn: (id: string) => api.delete<void>(`/orgs/${orgId}/invitations/${id}`), onSettled });
+  return useMutation({ meta: ownErrorMeta, mutationFn: (id: string) => api.delete<void>(`/orgs/${orgId}/invitations/${id}`), onSettled });
 }

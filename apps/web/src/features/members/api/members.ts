@@ -1,6 +1,7 @@
 import type { Member, Page, Role } from "@tagloom/contracts";
 import { infiniteQueryOptions, useInfiniteQuery, useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export const getMembers = (orgId: string, cursor?: string) =>
   api.get<Page<Member>>(`/orgs/${orgId}/members`, { query: { cursor, limit: 100 } });
@@ -20,6 +21,7 @@ export function useMembers(orgId: string) {
 export function useChangeMemberRole(orgId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: ({ userId, role }: { userId: string; role: Role }) => api.patch<Member>(`/orgs/${orgId}/members/${userId}`, { role }),
     onSettled: () => qc.invalidateQueries({ queryKey: ["orgs", orgId, "members"] }),
   });
@@ -28,6 +30,7 @@ export function useChangeMemberRole(orgId: string) {
 export function useRemoveMember(orgId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: (userId: string) => api.delete<void>(`/orgs/${orgId}/members/${userId}`),
     onSettled: () => qc.invalidateQueries({ queryKey: ["orgs", orgId, "members"] }),
   });

@@ -2,11 +2,13 @@ import type { TrainingRun } from "@tagloom/contracts";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corpusApi, runsKey } from "./keys";
+import { ownErrorMeta } from "@/lib/query-client";
 
 /** Starts a new run with the same config, seed and documents as `runId`. */
 export function useRepeatRun(orgId: string, corpusId: string, runId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     mutationFn: () => api.post<TrainingRun>(`${corpusApi(orgId, corpusId)}/runs/${runId}/repeat`),
     onSettled: () => qc.invalidateQueries({ queryKey: runsKey(orgId, corpusId) }),
   });

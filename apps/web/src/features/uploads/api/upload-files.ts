@@ -3,6 +3,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
 import { corpusKey } from "./keys";
 import { refreshFileViews } from "./sync-file-views";
+import { ownErrorMeta } from "@/lib/query-client";
 
 export type UploadRequest = { files: File[]; spanMode: SpanMode; defaultSplit: "" | "train" | "test" };
 
@@ -18,6 +19,7 @@ export function uploadFiles(orgId: string, corpusId: string, req: UploadRequest)
 export function useUploadFiles(orgId: string, corpusId: string) {
   const qc = useQueryClient();
   return useMutation({
+    meta: ownErrorMeta,
     // The new upload's results, the files table and the header's counts arrive together.
     mutationFn: async (req: UploadRequest) => {
       const result = await uploadFiles(orgId, corpusId, req);
