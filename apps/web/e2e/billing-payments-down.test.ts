@@ -1,3 +1,7 @@
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import type { Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { useBrowser } from "./support/browser";
 import { type Product, startProduct } from "./support/product";
@@ -7,6 +11,18 @@ import { type Product, startProduct } from "./support/product";
 // page has loaded. "Continue to payment" must say plainly what happened, and nothing may change.
 const session = useBrowser();
 let product: Product;
+// Screenshots are test artifacts (test-results/ is ignored by git).
+const shots = path.join(path.dirname(fileURLToPath(import.meta.url)), "..", "test-results", "billing-payments-down");
+
+/** Whether two elements' boxes on the screen share any area. */
+async function overlap(a: Locator, b: Locator): Promise<boolean> {
+  const [p, q] = [await a.boundingBox(), await b.boundingBox()];
+  if (!p || !q) throw new Error("element not on screen");
+  return p.x < q.x + q.width && q.x < p.x + p.width && p.y < q.y + q.height && q.y < p.y + p.height;
+}
+
+/** The toasts on screen now (the region holds the ones not yet gone). */
+const toasts = (page: Page) => page.getByTestId("toast-region").getByRole("alert");
 
 beforeAll(async () => {
   product = await startProduct();
@@ -54,6 +70,38 @@ it("Continue to payment with the payments service down shows a clear error and c
   await page.getByText("1 used of 5 free").waitFor();
   const after = await (await page.request.get(`/api/orgs/${orgId}/billing`)).json();
   expect(after).toEqual(before);
+  // The outage is said once, in the form's notice: the global toast skips an error the form shows
+  // (the answer came before the refetch the page waited for, and the toast would follow at once).
+  expect(await toasts(page).count()).toBe(0);
+  expect(await page.getByText("The payments service cannot be reached right now.", { exact: false }).count()).toBe(1);
+
+  // On a phone an outage toast that does come (the e-mail banner's "Send it again" shows no error
+  // of its own) sits in the header's band, clear of the form and its notice.
+  fs.mkdirSync(shots, { recursive: true });
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await page.screenshot({ path: path.join(shots, "notice-1440.png"), fullPage: true });
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.getByRole("button", { name: "Send it again" }).waitFor();
+  await page.route("**/api/auth/verify-email/resend", (route) => route.abort("connectionrefused"));
+  await page.getByRole("button", { name: "Send it again" }).click();
+  const toast = toasts(page);
+  await toast.waitFor();
+  expect(await toast.innerText()).toBe("Cannot reach the server. Check your connection and try again.");
+  const card = page.locator("form", { has: page.getByRole("button", { name: "Continue to payment" }) }).locator("..");
+  expect(await overlap(toast, card)).toBe(false);
+  expect(await overlap(toast, alert)).toBe(false);
+  // Scrolled or not, it stays inside the sticky header's band, so it never covers the page below.
+  for (const y of [0, 400]) {
+    await page.evaluate((top) => window.scrollTo(0, top), y);
+    const header = await page.locator("header").boundingBox();
+    const box = await toast.boundingBox();
+    expect(box!.y).toBeGreaterThanOrEqual(header!.y);
+    expect(box!.y + box!.height).toBeLessThanOrEqual(header!.y + header!.height);
+  }
+  await page.evaluate(() => window.scrollTo(0, 0));
+  await page.screenshot({ path: path.join(shots, "toast-390.png") });
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await page.screenshot({ path: path.join(shots, "toast-1440.png") });
 
   expect((page as typeof page & { outsideRequests?: string[] }).outsideRequests).toEqual([]);
 }, 120_000);

@@ -1,3 +1,6 @@
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
 import type { Page } from "playwright-core";
 import { beforeAll, describe, expect, it } from "vitest";
 import { signIn, waitSaved } from "./support/annotation-team";
@@ -6,6 +9,8 @@ import { type SuggestTeam, setUpSuggestTeam } from "./support/suggest-team";
 
 const session = useBrowser();
 let team: SuggestTeam;
+// Screenshots are test artifacts (test-results/ is ignored by git).
+const shots = path.join(path.dirname(fileURLToPath(import.meta.url)), "..", "test-results", "suggestions");
 
 beforeAll(async () => {
   team = await setUpSuggestTeam(session.baseUrl, session.mailUrl, `s${Date.now().toString(36)}`);
@@ -91,6 +96,24 @@ describe("suggestions in the browser", () => {
     expect(await rows.count()).toBe(14);
     // The manager's reason is on every row.
     for (const text of await rows.allTextContents()) expect(text).toMatch(/low-confidence spans: \d+ of \d+|no entities suggested/);
+
+    // At 1440 px the reason has a column of its own; at 390 px it sits under the document name,
+    // and the table fits the screen without sideways scrolling.
+    fs.mkdirSync(shots, { recursive: true });
+    const region = page.getByRole("region", { name: "Most uncertain documents" });
+    const headers = () => page.getByRole("table", { name: "Most uncertain documents" }).getByRole("columnheader").allTextContents();
+    await page.setViewportSize({ width: 1440, height: 900 });
+    expect(await headers()).toContain("Why");
+    await page.screenshot({ path: path.join(shots, "uncertain-1440.png"), fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.waitForFunction(() => ![...document.querySelectorAll("th")].some((th) => th.textContent === "Why"));
+    expect(await headers()).not.toContain("Why");
+    await page.screenshot({ path: path.join(shots, "uncertain-390.png"), fullPage: true });
+    expect(await rows.first().locator("td").nth(1).getByTestId("uncertain-reason").innerText()).toMatch(/low-confidence spans: \d+ of \d+|no entities suggested/);
+    expect(await region.evaluate((el) => el.scrollWidth - el.clientWidth)).toBeLessThanOrEqual(0);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(0);
+    await page.setViewportSize({ width: 1280, height: 860 });
+    await page.waitForFunction(() => [...document.querySelectorAll("th")].some((th) => th.textContent === "Why"));
 
     await page.getByLabel("Select the top").fill("5");
     const ranking = await team.api.call<{ items: Array<{ id: string; title: string; score: number }> }>("GET", `/orgs/${team.orgId}/corpora/${team.corpusId}/uncertain?limit=5`);

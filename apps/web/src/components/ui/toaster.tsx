@@ -18,8 +18,9 @@ export function ToastProvider({ children }: { children: ReactNode }) {
   return (
     <ToastContext.Provider value={value}>
       {children}
-      {/* Phones: over the sticky header's band at the top (only the newest toast), never over the
-          page's forms and their notices; wider screens: the bottom-right corner. */}
+      {/* Phones: inside the sticky header's 56 px band at the top (the newest toast only, two lines
+          at most: the whole text is still read out), never over the page's forms and their
+          notices; wider screens: the bottom-right corner. */}
       <div
         aria-live="polite"
         data-testid="toast-region"
@@ -28,9 +29,10 @@ export function ToastProvider({ children }: { children: ReactNode }) {
         {toasts.map((t) => (
           <div
             key={t.id}
+            title={t.message}
             role={t.tone === "error" ? "alert" : "status"}
             className={cn(
-              "pointer-events-auto rounded-md border px-3 py-2 text-sm shadow-md sm:px-4 sm:py-3",
+              "pointer-events-auto rounded-md border px-3 py-1.5 text-xs shadow-md max-sm:line-clamp-2 sm:px-4 sm:py-3 sm:text-sm",
               t.tone === "error" && "border-rust-500/40 bg-white text-rust-500",
               t.tone === "success" && "border-moss-500/40 bg-white text-moss-500",
               t.tone === "info" && "border-ink-100 bg-white text-ink-800",

@@ -1,9 +1,9 @@
 import type { UncertainDocument, UncertainRanking } from "@tagloom/contracts";
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { describe, expect, it } from "vitest";
+import { afterEach, describe, expect, it, vi } from "vitest";
 import { renderWithProviders } from "@/testing/test-utils";
-import { UncertainTable } from "./uncertain-table";
+import { NARROW_QUERY, UncertainTable } from "./uncertain-table";
 
 const doc = (n: number, score: number): UncertainDocument => ({
   id: `00000000-0000-4000-8000-${String(n).padStart(12, "0")}`,
@@ -61,5 +61,43 @@ describe("UncertainTable", () => {
     expect(screen.queryAllByRole("checkbox")).toHaveLength(0);
     expect(screen.queryByLabelText("Select the top")).toBeNull();
     expect(screen.getAllByRole("row")).toHaveLength(13);
+  });
+
+  describe("on a phone-sized screen", () => {
+    afterEach(() => vi.unstubAllGlobals());
+    /** jsdom has no layout: stand in for the browser's answer to the table's one media query. */
+    const screenWidth = (width: number) =>
+      vi.stubGlobal("matchMedia", (query: string) => ({
+        matches: query === NARROW_QUERY && width < 640,
+        media: query,
+        addEventListener: () => undefined,
+        removeEventListener: () => undefined,
+      }));
+
+    it("puts each rank before and each reason under its document name, without Rank and Why columns", () => {
+      screenWidth(390);
+      renderWithProviders(<UncertainTable ranking={ranking} linkTo={(id) => `/doc/${id}`} batchLink={batchLink} />);
+      const table = screen.getByRole("table", { name: "Most uncertain documents" });
+      expect(within(table).getAllByRole("columnheader").map((h) => h.textContent)).toEqual(["Selected", "Document", "Uncertainty"]);
+      const rows = within(table).getAllByRole("row").slice(1);
+      rows.forEach((row, i) => {
+        const d = ranking.items[i]!;
+        expect(within(row).getAllByRole("cell")).toHaveLength(3);
+        const nameCell = within(row).getByRole("link", { name: d.title }).closest("td")!;
+        expect(nameCell).toHaveTextContent(new RegExp(`^Rank ${i + 1}\\.${d.title}`));
+        expect(within(nameCell).getByTestId("uncertain-reason")).toHaveTextContent(`Why: ${d.reason}`);
+      });
+    });
+
+    it("keeps the Why column at desktop width", () => {
+      screenWidth(1440);
+      renderWithProviders(<UncertainTable ranking={ranking} linkTo={(id) => `/doc/${id}`} />);
+      const table = screen.getByRole("table", { name: "Most uncertain documents" });
+      expect(within(table).getAllByRole("columnheader").map((h) => h.textContent)).toEqual(["Rank", "Document", "Uncertainty", "Why"]);
+      const first = within(table).getAllByRole("row")[1]!;
+      const cells = within(first).getAllByRole("cell");
+      expect(cells[3]).toHaveTextContent(ranking.items[0]!.reason);
+      expect(within(cells[1]!).queryByTestId("uncertain-reason")).toBeNull();
+    });
   });
 });

@@ -5,8 +5,12 @@ import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { DataTable } from "@/components/ui/data-table";
 import { Field, Input } from "@/components/ui/field";
+import { useMediaQuery } from "../hooks/use-media-query";
 
 const col = createColumnHelper<UncertainDocument>();
+
+/** Below Tailwind's `sm` (640 px) the rank and the reason join the document's cell instead of having columns of their own. */
+export const NARROW_QUERY = "(max-width: 639.98px)";
 
 /**
  * Documents without gold, most uncertain first, with the score and a plain reason. The manager
@@ -25,6 +29,8 @@ export function UncertainTable({
   const [picked, setPicked] = useState<Set<string> | null>(null);
   const selected = picked ?? new Set(ranking.items.slice(0, top).map((d) => d.id));
   const ids = ranking.items.filter((d) => selected.has(d.id)).map((d) => d.id);
+  // Rank and "Why" columns need sideways scrolling on a phone; stacked with the name they need none.
+  const narrow = useMediaQuery(NARROW_QUERY);
   const columns = useMemo(
     () => [
       ...(batchLink
@@ -51,14 +57,32 @@ export function UncertainTable({
       col.display({ id: "rank", header: "Rank", cell: (c) => <span className="text-ink-500 tabular-nums">{c.row.index + 1}</span> }),
       col.accessor("title", {
         header: "Document",
-        cell: (c) => (
-          <span className="whitespace-nowrap">
-            <Link className="font-medium text-ink-900 hover:underline" to={linkTo(c.row.original.id)}>
-              {c.getValue()}
-            </Link>
-            <span className="ml-2 text-xs text-ink-500">{countOf(c.row.original.tokenCount, "token")}</span>
-          </span>
-        ),
+        cell: (c) =>
+          narrow ? (
+            <div className="min-w-0 space-y-0.5">
+              <div>
+                <span className="mr-1.5 text-ink-500 tabular-nums">
+                  <span className="sr-only">Rank </span>
+                  {c.row.index + 1}.
+                </span>
+                <Link className="font-medium break-words text-ink-900 hover:underline" to={linkTo(c.row.original.id)}>
+                  {c.getValue()}
+                </Link>
+              </div>
+              <p className="text-xs text-ink-500">{countOf(c.row.original.tokenCount, "token")}</p>
+              <p className="text-xs text-ink-700" data-testid="uncertain-reason">
+                <span className="sr-only">Why: </span>
+                {c.row.original.reason}
+              </p>
+            </div>
+          ) : (
+            <span className="whitespace-nowrap">
+              <Link className="font-medium text-ink-900 hover:underline" to={linkTo(c.row.original.id)}>
+                {c.getValue()}
+              </Link>
+              <span className="ml-2 text-xs text-ink-500">{countOf(c.row.original.tokenCount, "token")}</span>
+            </span>
+          ),
       }),
       col.accessor("score", {
         header: () => <span className="block text-right">Uncertainty</span>,
@@ -68,11 +92,11 @@ export function UncertainTable({
           </span>
         ),
       }),
-      col.accessor("reason", { header: "Why", cell: (c) => <span className="text-ink-700">{c.getValue()}</span> }),
+      col.accessor("reason", { header: "Why", cell: (c) => <span className="text-ink-700" data-testid="uncertain-reason">{c.getValue()}</span> }),
     ],
-    [batchLink, linkTo, selected],
+    [batchLink, linkTo, selected, narrow],
   );
-  const table = useDataTable({ data: ranking.items, columns, getRowId: (d) => d.id });
+  const table = useDataTable({ data: ranking.items, columns, getRowId: (d) => d.id, state: { columnVisibility: { rank: !narrow, reason: !narrow } } });
   return (
     <div className="space-y-3">
       {batchLink ? (
