@@ -10,7 +10,7 @@ import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterb
 import { addNodeLogRatio, createSuffixTrie, suffixNode, type SuffixTrie } from "./suffix-trie";
 import type { TaggerModel } from "./tagger-model";
 import { clearPairs, createPairTable, getPair, setPair, type PairTable } from "./pair-table";
-import { clearWords, createWordTable, findWord, insertWord, type WordTable } from "./word-table";
+import { clearWords, createWordTable, findHashedWord, firstProbe, hashWord, insertHashedWord, type WordTable } from "./word-table";
 
 /**
  * The tagging path's first-order lattice of one sentence, built from per-model caches instead of
@@ -79,6 +79,8 @@ export type SentenceLattice = {
   scaled: ScaledWorkspace;
   /** Emission row of each token in the model cache (see Cache.wordRows). */
   rows: Int32Array;
+  /** hashWord of each token (with its position). */
+  hashes: Int32Array;
   /** Buffers of the Viterbi pass over this lattice, and its path (T entries used). */
   viterbi: ViterbiWorkspace;
   path: Int32Array;
@@ -156,6 +158,11 @@ type Cache = {
   end: Float64Array | null;
   keep: Float64Array;
   lattice: SentenceLattice;
+  /**
+   * Sum of the numbers read ahead of use (see buildSentenceLattice), kept so that the reads are
+   * not dropped as dead code; never read for a score.
+   */
+  sink: number;
   /** The model's suffix statistics as a trie, or null without suffix statistics. */
   suffix: SuffixTrie | null;
   conditional: Float64Array;
@@ -182,6 +189,7 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     end: null,
     stepIndex: new Int32Array(capacity),
     rows: new Int32Array(capacity),
+    hashes: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
     viterbi: createViterbiWorkspace(K, capacity),
     path: new Int32Array(capacity),
@@ -320,6 +328,7 @@ function createCache(model: TaggerModel): Cache {
     end,
     keep,
     lattice: createLattice(K, 64),
+    sink: 0,
     suffix: model.suffix === null ? null : createSuffixTrie(model.suffix),
     conditional: new Float64Array(K),
   };
@@ -345,8 +354,8 @@ function grow<T extends Float64Array | Int32Array | Uint8Array>(array: T, size: 
  * Emission row of a word type at a sentence position, filling it on first sight: the word's
  * symbol and its scores (the table row, plus the suffix log-ratio for unknown words), log and exp.
  */
-function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean): number {
-  const found = findWord(cache.words, word, first);
+function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolean, hash: number): number {
+  const found = findHashedWord(cache.words, word, first, hash);
   if (found >= 0) return found;
   const K = cache.K;
   const symbol = symbolOf(model.vocabulary, word, first);
@@ -381,7 +390,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     }
     for (let k = 0; k < K; k++) rows[out + K + k] = Math.exp(rows[out + k]);
   }
-  insertWord(cache.words, word, first, row);
+  insertHashedWord(cache.words, word, first, row, hash);
   return row;
 }
 
@@ -535,13 +544,30 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     cache.symbolRows.fill(-1);
     clearPairs(cache.suffixRows);
   }
-  // Two passes, so that the memory reads of one token's lookup and of the next token's overlap.
+  // Several passes, so that the memory reads of one token's lookup and of the next token's
+  // overlap: the hashes and each token's first table slot in a loop of independent loads, then
+  // the lookups (whose slots are on their way to the cache by then).
   const entries = lattice.rows;
-  for (let t = 0; t < T; t++) entries[t] = wordEntry(model, cache, words[t], t === 0);
+  const hashes = lattice.hashes;
+  let ahead = 0;
+  for (let t = 0; t < T; t++) {
+    const h = hashWord(words[t], t === 0);
+    hashes[t] = h;
+    ahead += firstProbe(cache.words, h);
+  }
+  for (let t = 0; t < T; t++) entries[t] = wordEntry(model, cache, words[t], t === 0, hashes[t]);
   const rows = cache.wordRows;
   const W = 2 * K + 1;
-  // Symbols first: a loop of independent loads, so the rows' cache misses overlap.
-  for (let t = 0; t < T; t++) symbols[t] = rows[entries[t] * W];
+  // Symbols first: a loop of independent loads (one per cache line of each row), so the rows'
+  // cache misses overlap.
+  let touched = 0;
+  for (let t = 0; t < T; t++) {
+    const at = entries[t] * W;
+    symbols[t] = rows[at];
+    for (let x = at + 8; x < at + W; x += 8) touched += rows[x];
+    touched += rows[at + W - 1];
+  }
+  cache.sink = ahead + touched;
   for (let t = 0; t < T; t++) {
     const at = entries[t] * W;
     for (let k = 0, from = at + 1, to = t * K; k < K; k++) {
@@ -664,3 +690,4 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   lattice.steps = cache.previousExp;
   return lattice;
 }
+

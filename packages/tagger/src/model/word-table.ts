@@ -45,7 +45,19 @@ export function hashWord(word: string, first: boolean): number {
 
 /** The value stored for (word, first), or −1. */
 export function findWord(table: WordTable, word: string, first: boolean): number {
-  const h = hashWord(word, first);
+  return findHashedWord(table, word, first, hashWord(word, first));
+}
+
+/**
+ * The first slot word a lookup of hash h reads (for the tagging path, which reads it for every
+ * token of a sentence in a loop of its own, so that the tokens' cache misses overlap).
+ */
+export function firstProbe(table: WordTable, h: number): number {
+  return table.slots[SLOT * (h & (table.slots.length / SLOT - 1)) + 1];
+}
+
+/** {@link findWord} with h = hashWord(word, first) already computed. */
+export function findHashedWord(table: WordTable, word: string, first: boolean, h: number): number {
   const { slots } = table;
   const mask = slots.length / SLOT - 1;
   const flag = first ? 1 : 0;
@@ -77,8 +89,12 @@ function freeSlot(slots: Int32Array, h: number): number {
 
 /** Adds (word, first), which must not be in the table yet, with `value` (an integer in 0..2^30−1). */
 export function insertWord(table: WordTable, word: string, first: boolean, value: number): void {
+  insertHashedWord(table, word, first, value, hashWord(word, first));
+}
+
+/** {@link insertWord} with h = hashWord(word, first) already computed. */
+export function insertHashedWord(table: WordTable, word: string, first: boolean, value: number, h: number): void {
   if (!(Number.isInteger(value) && value >= 0 && value < 2 ** 30)) throw new RangeError(`word table: value ${value} is not an integer in [0, 2^30)`);
-  const h = hashWord(word, first);
   table.size++;
   const n = word.length;
   if (4 * SLOT * table.size > 3 * table.slots.length) {
