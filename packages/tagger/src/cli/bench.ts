@@ -5,7 +5,7 @@
 import { createSyntheticCorpus, createViterbiWorkload } from "../kernels/synthetic";
 import { segmentStartTable } from "../estimation/context-emissions";
 import { countSupervised } from "../estimation/train";
-import { decodeViterbi } from "../kernels/viterbi";
+import { decodeViterbi, decodeViterbiJs } from "../kernels/viterbi";
 import { createSyntheticDocuments } from "../kernels/synthetic";
 import { tagSentence, trainTagger } from "../model/tagger";
 
@@ -15,9 +15,10 @@ const seconds = (from: bigint) => Number(process.hrtime.bigint() - from) / 1e9;
  * Tokens per second of our Viterbi on the C reference's workload shape (best of `repeats` passes),
  * called as the model's decoder calls it (decode.ts: path out, no workspace), so the WebAssembly
  * kernel's lattice stays in its memory as the C program's stays in its buffer; with a workspace
- * decodeViterbi also copies the T×K lattice out for the caller.
+ * decodeViterbi also copies the T×K lattice out for the caller. With `javascript` the JavaScript
+ * kernel that the tagging path calls (decodeViterbiJs, compiled per K) is timed instead.
  */
-export function benchViterbi(states: number, tokens: number, repeats: number): number {
+export function benchViterbi(states: number, tokens: number, repeats: number, javascript = false): number {
   const { params, emissionTable, words, sentenceStarts } = createViterbiWorkload(states, tokens);
   const out = new Int32Array(tokens);
   const sentences = sentenceStarts.length - 1;
@@ -30,7 +31,8 @@ export function benchViterbi(states: number, tokens: number, repeats: number): n
   let best = Infinity;
   for (let r = 0; r < repeats; r++) {
     const started = process.hrtime.bigint();
-    for (let s = 0; s < sentences; s++) decodeViterbi(params, inputs[s].input, inputs[s].out);
+    if (javascript) for (let s = 0; s < sentences; s++) decodeViterbiJs(params, inputs[s].input, inputs[s].out);
+    else for (let s = 0; s < sentences; s++) decodeViterbi(params, inputs[s].input, inputs[s].out);
     best = Math.min(best, seconds(started));
   }
   return tokens / best;
