@@ -3,7 +3,7 @@ import { createCorpusWithTypes } from "./corpora";
 import { type SignedIn, type TestServer, addSignedInMember, signUpFounder, startTestServer } from "./http";
 import { startTestWorkers } from "./workers";
 
-export type ManagerCorpus = { server: TestServer; admin: SignedIn; manager: SignedIn; corpusId: string };
+export type ManagerCorpus = { server: TestServer; admin: SignedIn; manager: SignedIn; corpusId: string; typeIds: Record<string, string> };
 
 /**
  * The setup of upload tests: the app with its job workers in this process, a founder's
@@ -14,8 +14,8 @@ export async function startManagerCorpus(organizationName: string, corpusName: s
   await startTestWorkers();
   const admin = await signUpFounder(server, { organizationName });
   const manager = await addSignedInMember(server, admin.orgId, "manager");
-  const { corpusId } = await createCorpusWithTypes(manager.agent, admin.orgId, corpusName, types);
-  return { server, admin, manager, corpusId };
+  const { corpusId, typeIds } = await createCorpusWithTypes(manager.agent, admin.orgId, corpusName, types);
+  return { server, admin, manager, corpusId, typeIds };
 }
 
 /** How many documents the corpus holds (read from the table, not through the API). */
