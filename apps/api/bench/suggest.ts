@@ -23,15 +23,7 @@ const workers: ChildProcess[] = [];
 try {
   const { db } = await import("../src/db/knex");
   const { insertTagger } = await import("../src/training/taggers.service");
-  const call = async (method: string, p: string, body?: object) => {
-    const res = await fetch(`${product.base}/api/orgs/${product.orgId}${p}`, {
-      method,
-      headers: { ...product.headers, "Content-Type": "application/json" },
-      body: body ? JSON.stringify(body) : undefined,
-    });
-    if (!res.ok) throw new Error(`${method} ${p}: ${res.status} ${await res.text()}`);
-    return res.json() as Promise<Record<string, unknown>>;
-  };
+  const { call } = product;
   const corpusId = (await call("POST", "/corpora", { name: "Suggestion bench" })).id as string;
   await call("POST", `/corpora/${corpusId}/entity-types`, { name: "PARTY" });
   await seedDocuments(db, { organizationId: product.orgId, corpusId, count: DOCUMENTS, tokens: TOKENS });

@@ -26,15 +26,7 @@ const product = await startBenchProduct("bench-tagging-api");
 try {
   const { insertTagger } = await import("../src/training/taggers.service");
   const { tokenizeText } = await import("@tagloom/tagger");
-  const call = async (method: string, p: string, body?: object) => {
-    const res = await fetch(`${product.base}/api/orgs/${product.orgId}${p}`, {
-      method,
-      headers: { ...product.headers, "Content-Type": "application/json" },
-      body: body ? JSON.stringify(body) : undefined,
-    });
-    if (!res.ok) throw new Error(`${method} ${p}: ${res.status} ${await res.text()}`);
-    return res.json() as Promise<Record<string, unknown>>;
-  };
+  const { call } = product;
   const corpusId = (await call("POST", "/corpora", { name: "Tagging API bench" })).id as string;
   await call("POST", `/corpora/${corpusId}/entity-types`, { name: "PARTY" });
   const tagger = await insertTagger({ organizationId: product.orgId, corpusId, modelText: benchModelText(200) });

@@ -65,7 +65,10 @@ export function zodFieldErrors(err: ZodError): Record<string, string[]> {
   return out;
 }
 
-/** Parses with a schema; a failure becomes a 400 with field details. */
+/**
+ * Parses with a schema; a failure becomes a 400 with field details. Routes do not call it: their
+ * input is parsed once by `validate` and read with `validated` (security/route-meta.ts).
+ */
 export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown, what = "request"): z.infer<T> {
   const result = schema.safeParse(value);
   if (!result.success) throw new ValidationError(`The ${what} is not valid.`, { fields: zodFieldErrors(result.error) });

@@ -1,8 +1,8 @@
 import type { DocumentListItem } from "@tagloom/contracts";
 import { beforeAll, describe, expect, it } from "vitest";
-import { createCorpusWithTypes, uploadAndWait } from "./support/corpora";
-import { type SignedIn, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
-import { startTestWorkers } from "./support/workers";
+import { uploadAndWait } from "./support/corpora";
+import type { SignedIn } from "./support/http";
+import { startManagerCorpus } from "./support/manager-corpus";
 
 // U+202E RIGHT-TO-LEFT OVERRIDE and U+2066 LEFT-TO-RIGHT ISOLATE (Unicode Standard Annex #9 §2.2, §2.4).
 const RLO = "\u202E";
@@ -13,11 +13,7 @@ let manager: SignedIn;
 let corpusId: string;
 
 beforeAll(async () => {
-  const server = await startTestServer();
-  await startTestWorkers();
-  admin = await signUpFounder(server, { organizationName: "Quillet Name Desk" });
-  manager = await addSignedInMember(server, admin.orgId, "manager");
-  ({ corpusId } = await createCorpusWithTypes(manager.agent, admin.orgId, "Bidi corpus", ["PARTY"]));
+  ({ admin, manager, corpusId } = await startManagerCorpus("Quillet Name Desk", "Bidi corpus", ["PARTY"]));
 });
 
 describe("bidirectional controls in names and titles", () => {

@@ -2,10 +2,10 @@ import http from "node:http";
 import type { UploadResult } from "@tagloom/contracts";
 import { beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/knex";
-import { createCorpusWithTypes, uploadFiles, waitForUpload } from "./support/corpora";
-import { type SignedIn, type TestServer, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
+import { uploadFiles, waitForUpload } from "./support/corpora";
+import type { SignedIn, TestServer } from "./support/http";
+import { startManagerCorpus } from "./support/manager-corpus";
 import { tenantFingerprint } from "./support/tenant-fixture";
-import { startTestWorkers } from "./support/workers";
 
 // Why these inputs: PostgreSQL refuses U+0000 in text ("invalid byte sequence for encoding
 // UTF8: 0x00", PostgreSQL 15 manual §8.3 Character Types: "the character with code zero cannot
@@ -20,12 +20,8 @@ let corpusId: string;
 let typeId: string;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  await startTestWorkers();
-  admin = await signUpFounder(server, { organizationName: "Brindle Input Works" });
-  manager = await addSignedInMember(server, admin.orgId, "manager");
-  const made = await createCorpusWithTypes(manager.agent, admin.orgId, "Input corpus", ["PARTY"]);
-  corpusId = made.corpusId;
+  const made = await startManagerCorpus("Brindle Input Works", "Input corpus", ["PARTY"]);
+  ({ server, admin, manager, corpusId } = made);
   typeId = made.typeIds.PARTY!;
 });
 

@@ -1,43 +1,13 @@
-import { type ChildProcess, spawn } from "node:child_process";
-import net from "node:net";
-import { join } from "node:path";
-import { afterAll, describe, expect, it } from "vitest";
-import { repoRoot } from "@/config/env";
+import { describe, expect, it } from "vitest";
 import { uniqueEmail } from "./support/http";
+import { signalAndWait, startApiProcess } from "./support/server-process";
 
 // The API logs every request (pino-http, level info, as `npm start` runs it). Session cookies and
 // API tokens are credentials: whoever reads the log must not be able to sign in with them.
-const children: ChildProcess[] = [];
-afterAll(() => {
-  for (const c of children) if (c.exitCode === null && c.signalCode === null) c.kill("SIGKILL");
-});
-
-const freePort = () =>
-  new Promise<number>((resolve) => {
-    const srv = net.createServer().listen(0, "127.0.0.1", () => {
-      const p = (srv.address() as net.AddressInfo).port;
-      srv.close(() => resolve(p));
-    });
-  });
-
 describe("request log", () => {
   it("keeps session cookies, Set-Cookie answers, bearer tokens and e-mailed link tokens out of the log lines", async () => {
-    const port = await freePort();
-    const child = spawn(process.execPath, ["--import", "tsx", "src/server.ts"], {
-      cwd: join(repoRoot, "apps/api"),
-      env: { ...process.env, NODE_ENV: "development", PORT: String(port), HOST: "127.0.0.1", LOG_LEVEL: "info", AUTH_RATE_LIMIT: "1000" },
-      stdio: ["ignore", "pipe", "inherit"],
-    });
-    children.push(child);
-    let log = "";
-    child.stdout!.on("data", (d: Buffer) => (log += d.toString()));
-    const url = `http://127.0.0.1:${port}`;
-    const deadline = Date.now() + 45_000;
-    while (!(await fetch(`${url}/api/health`).then((r) => r.ok, () => false))) {
-      if (child.exitCode !== null) throw new Error(`API exited with ${child.exitCode}`);
-      if (Date.now() > deadline) throw new Error("API did not start within 45 s");
-      await new Promise((r) => setTimeout(r, 100));
-    }
+    const api = await startApiProcess({ env: { NODE_ENV: "development", LOG_LEVEL: "info" }, stdout: "pipe" });
+    const { url } = api;
 
     const signUp = await fetch(`${url}/api/auth/sign-up`, {
       method: "POST",
@@ -64,9 +34,9 @@ describe("request log", () => {
 
     // pino-http writes its line when the answer is finished; give the last one a moment.
     const until = Date.now() + 10_000;
-    while (!log.includes("/accept") && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
-    child.kill("SIGTERM");
-    await new Promise((r) => child.once("exit", r));
+    while (!api.output().includes("/accept") && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    await signalAndWait(api.child, "SIGTERM");
+    const log = api.output();
 
     const lines = log.split("\n").filter((l) => l.includes('"request completed"'));
     const meLine = lines.find((l) => l.includes('"url":"/api/me"'));

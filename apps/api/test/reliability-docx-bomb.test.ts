@@ -1,10 +1,9 @@
 import { crc32, deflateRawSync } from "node:zlib";
 import { beforeAll, describe, expect, it, vi } from "vitest";
-import { db } from "@/db/knex";
-import { createCorpusWithTypes, uploadFiles, waitForUpload } from "./support/corpora";
+import { uploadFiles, waitForUpload } from "./support/corpora";
 import { makeDocx } from "./support/files/docx";
-import { type SignedIn, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
-import { startTestWorkers } from "./support/workers";
+import type { SignedIn } from "./support/http";
+import { countDocuments, startManagerCorpus } from "./support/manager-corpus";
 
 vi.hoisted(() => {
   process.env.UPLOAD_MAX_DOCX_UNPACKED_BYTES = String(8 * 1024 * 1024);
@@ -81,14 +80,10 @@ let manager: SignedIn;
 let corpusId: string;
 
 beforeAll(async () => {
-  const server = await startTestServer();
-  await startTestWorkers();
-  admin = await signUpFounder(server, { organizationName: "Pellow Archive Office" });
-  manager = await addSignedInMember(server, admin.orgId, "manager");
-  ({ corpusId } = await createCorpusWithTypes(manager.agent, admin.orgId, "Bomb corpus", ["PARTY"]));
+  ({ admin, manager, corpusId } = await startManagerCorpus("Pellow Archive Office", "Bomb corpus", ["PARTY"]));
 });
 
-const documentCount = async () => Number((await db("documents").where({ corpus_id: corpusId }).count<{ count: string }[]>("* as count"))[0]!.count);
+const documentCount = () => countDocuments(corpusId);
 
 describe("DOCX decompression bombs", () => {
   it("refuses an archive that declares more than the limit before inflating it; the good file beside it is imported", async () => {

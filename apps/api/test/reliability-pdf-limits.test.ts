@@ -1,11 +1,10 @@
 import { beforeAll, describe, expect, it, vi } from "vitest";
-import { db } from "@/db/knex";
 import { extractPdfFile } from "@/uploads/extract/pdf-file";
 import { FileRefusal } from "@/uploads/extract/refusal";
-import { createCorpusWithTypes, uploadFiles, waitForUpload } from "./support/corpora";
+import { uploadFiles, waitForUpload } from "./support/corpora";
 import { makePdf } from "./support/files/pdf";
-import { type SignedIn, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
-import { startTestWorkers } from "./support/workers";
+import type { SignedIn } from "./support/http";
+import { countDocuments, startManagerCorpus } from "./support/manager-corpus";
 
 vi.hoisted(() => {
   process.env.UPLOAD_MAX_PDF_PAGES = "5";
@@ -17,14 +16,10 @@ let manager: SignedIn;
 let corpusId: string;
 
 beforeAll(async () => {
-  const server = await startTestServer();
-  await startTestWorkers();
-  admin = await signUpFounder(server, { organizationName: "Ossery Print Room" });
-  manager = await addSignedInMember(server, admin.orgId, "manager");
-  ({ corpusId } = await createCorpusWithTypes(manager.agent, admin.orgId, "PDF limits", ["PARTY"]));
+  ({ admin, manager, corpusId } = await startManagerCorpus("Ossery Print Room", "PDF limits", ["PARTY"]));
 });
 
-const documentCount = async () => Number((await db("documents").where({ corpus_id: corpusId }).count<{ count: string }[]>("* as count"))[0]!.count);
+const documentCount = () => countDocuments(corpusId);
 const line = "Deliveries from Harrowend Mills are logged here.";
 
 describe("PDF limits", () => {

@@ -6,6 +6,7 @@ import { db } from "@/db/knex";
 import { type SignedIn, type TestServer, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
 import { type GeneratedDocument, createTrainingCorpus, generateDocuments } from "./support/training-data";
 import { startTestWorkers, stopTestWorkers } from "./support/workers";
+import { trainingRuns } from "./support/training-runs";
 
 // Runs with word clusters (learnt from the corpus's documents without gold) and perceptron passes,
 // end to end through pg-boss with the workers in this process.
@@ -33,24 +34,7 @@ afterAll(async () => {
 
 const base = () => `/api/orgs/${lead.orgId}/corpora/${corpusId}`;
 
-async function waitForRun(runId: string, timeoutMs = 120_000): Promise<TrainingRun> {
-  const until = Date.now() + timeoutMs;
-  for (;;) {
-    const res = await lead.agent.get(`${base()}/runs/${runId}`);
-    expect(res.status).toBe(200);
-    if (["succeeded", "failed", "cancelled"].includes(res.body.status)) return res.body as TrainingRun;
-    if (Date.now() > until) throw new Error(`run ${runId} still ${res.body.status}/${res.body.stage}`);
-    await new Promise((r) => setTimeout(r, 150));
-  }
-}
-
-async function trainedRun(body: object): Promise<TrainingRun> {
-  const res = await lead.agent.post(`${base()}/runs`).send(body);
-  expect(res.status, JSON.stringify(res.body)).toBe(202);
-  const run = await waitForRun(res.body.id);
-  expect(run.status, run.error ?? "").toBe("succeeded");
-  return run;
-}
+const { waitForRun, trainedRun } = trainingRuns(() => lead.agent, base, 120_000);
 
 async function storedModel(taggerId: string): Promise<SerializedModel> {
   const row = await db("taggers").where({ id: taggerId }).first("model");

@@ -1,11 +1,11 @@
-import { type ChildProcess, spawn } from "node:child_process";
-import { join } from "node:path";
 import type { TrainingRun } from "@tagloom/contracts";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { env, repoRoot } from "@/config/env";
+import { beforeAll, describe, expect, it } from "vitest";
+import { env } from "@/config/env";
 import { db } from "@/db/knex";
 import { type SignedIn, type TestServer, signUpFounder, startTestServer } from "./support/http";
+import { stopProcess } from "./support/server-process";
 import { createTrainingCorpus, generateDocuments } from "./support/training-data";
+import { startWorkerProcess } from "./support/workers";
 
 // Workers are separate processes here (src/worker.ts), as in production: one is killed with
 // SIGKILL in the middle of a run, and pg-boss hands the job to another once it expires.
@@ -13,7 +13,6 @@ const EXPIRE_SECONDS = 5;
 let server: TestServer;
 let founder: SignedIn;
 let corpusId: string;
-const children: ChildProcess[] = [];
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -23,29 +22,8 @@ beforeAll(async () => {
   env.TRAINING_JOB_EXPIRE_SECONDS = EXPIRE_SECONDS;
 }, 60_000);
 
-afterAll(async () => {
-  for (const child of children) if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
-});
-
-function startWorker(): ChildProcess {
-  // node itself with tsx's loader (not the tsx launcher, which would leave its node child running
-  // when it is killed), so that SIGKILL hits the process that runs the job.
-  const child = spawn(process.execPath, ["--import", "tsx", "src/worker.ts"], {
-    cwd: join(repoRoot, "apps/api"),
-    env: { ...process.env, TRAINING_JOB_EXPIRE_SECONDS: String(EXPIRE_SECONDS), JOB_MAINTENANCE_SECONDS: "1", LOG_LEVEL: "silent" },
-    stdio: "ignore",
-  });
-  children.push(child);
-  return child;
-}
-
-async function stopWorker(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise((r) => child.once("exit", r));
-  child.kill("SIGTERM");
-  await Promise.race([exited, new Promise((r) => setTimeout(r, 15_000))]);
-  if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
-}
+// Workers spawned with the short expiry too (the jobs they send on expire as quickly).
+const startWorker = () => startWorkerProcess({ TRAINING_JOB_EXPIRE_SECONDS: String(EXPIRE_SECONDS) });
 
 const base = () => `/api/orgs/${founder.orgId}/corpora/${corpusId}`;
 const getRun = async (id: string) => (await founder.agent.get(`${base()}/runs/${id}`)).body as TrainingRun;
@@ -87,6 +65,6 @@ describe("training runs and worker processes", () => {
     expect(await db("taggers").where({ run_id: runId }).count<{ n: number }[]>({ n: "*" })).toEqual([{ n: 1 }]);
     const job = await db.raw("SELECT state, retry_count FROM pgboss.job WHERE name = 'training-finish' AND data->>'runId' = ?", [runId]);
     expect(job.rows).toEqual([{ state: "completed", retry_count: 1 }]);
-    await stopWorker(second);
+    await stopProcess(second);
   }, 150_000);
 });

@@ -3,8 +3,8 @@ import { beforeAll, describe, expect, it, vi } from "vitest";
 import { createCorpusWithTypes, uploadAndWait, uploadFiles } from "./support/corpora";
 import { makeDocx } from "./support/files/docx";
 import { makeEncryptedPdf, makeImageOnlyPdf, makePdf } from "./support/files/pdf";
-import { type SignedIn, type TestServer, addSignedInMember, signUpFounder, startTestServer } from "./support/http";
-import { startTestWorkers } from "./support/workers";
+import { type SignedIn, type TestServer, addSignedInMember } from "./support/http";
+import { startManagerCorpus } from "./support/manager-corpus";
 
 // Small limits so the tests can cross them; read by config/env.ts when the app is imported.
 vi.hoisted(() => {
@@ -20,11 +20,7 @@ let manager: SignedIn;
 let corpusId: string;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  await startTestWorkers();
-  admin = await signUpFounder(server, { organizationName: "Upload Org" });
-  manager = await addSignedInMember(server, admin.orgId, "manager");
-  ({ corpusId } = await createCorpusWithTypes(manager.agent, admin.orgId, "Uploads corpus", ["PARTY", "PLACE"]));
+  ({ server, admin, manager, corpusId } = await startManagerCorpus("Upload Org", "Uploads corpus", ["PARTY", "PLACE"]));
 });
 
 const corpusPath = () => `/api/orgs/${admin.orgId}/corpora/${corpusId}`;

@@ -52,6 +52,8 @@ export type BenchProduct = {
   userId: string;
   email: string;
   headers: Record<string, string>;
+  /** A JSON request as the founder to /api/orgs/:orgId + path; a status other than 2xx throws. */
+  call: (method: string, path: string, body?: object) => Promise<Record<string, unknown>>;
   stop: () => Promise<void>;
 };
 
@@ -98,7 +100,17 @@ export async function startBenchProduct(label: string): Promise<BenchProduct> {
     });
     const body = (await res.json()) as { organizationId: string; user: { id: string } };
     const cookie = res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
-    return { base, api, orgId: body.organizationId, userId: body.user.id, email, headers: { Origin: base, Cookie: cookie }, stop };
+    const headers = { Origin: base, Cookie: cookie };
+    const call = async (method: string, p: string, json?: object) => {
+      const r = await fetch(`${base}/api/orgs/${body.organizationId}${p}`, {
+        method,
+        headers: { ...headers, "Content-Type": "application/json" },
+        body: json ? JSON.stringify(json) : undefined,
+      });
+      if (!r.ok) throw new Error(`${method} ${p}: ${r.status} ${await r.text()}`);
+      return r.json() as Promise<Record<string, unknown>>;
+    };
+    return { base, api, orgId: body.organizationId, userId: body.user.id, email, headers, call, stop };
   } catch (err) {
     await stop();
     throw err;

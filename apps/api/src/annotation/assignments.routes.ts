@@ -1,10 +1,9 @@
 import { saveAssignmentInputSchema, submitAssignmentInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, anyMember, memberOf } from "@/orgs/org-access";
 import { getAssignmentView, getQueue, saveAssignment, submitAssignment } from "./assignments.service";
 import "./entity-type-store";
-import { idParams, noQuery, validate } from "@/security/route-meta";
+import { idParams, noQuery, validate, validated } from "@/security/route-meta";
 
 /**
  * An annotator's work, below /orgs/:orgId. Every member may have assignments; the service lets
@@ -21,11 +20,11 @@ assignmentsRouter.get("/corpora/:corpusId/assignments/:assignmentId", anyMember,
 });
 
 assignmentsRouter.put("/corpora/:corpusId/assignments/:assignmentId", anyMember, validate({ params: idParams("corpusId", "assignmentId"), query: noQuery, body: saveAssignmentInputSchema }), async (req, res) => {
-  const input = parseOrThrow(saveAssignmentInputSchema, req.body);
+  const input = validated(req, "body", saveAssignmentInputSchema);
   res.json(await saveAssignment(memberOf(req), String(req.params.corpusId), String(req.params.assignmentId), input));
 });
 
 assignmentsRouter.post("/corpora/:corpusId/assignments/:assignmentId/submit", anyMember, validate({ params: idParams("corpusId", "assignmentId"), query: noQuery, body: submitAssignmentInputSchema }), async (req, res) => {
-  const { version } = parseOrThrow(submitAssignmentInputSchema, req.body);
+  const { version } = validated(req, "body", submitAssignmentInputSchema);
   res.json(await submitAssignment(memberOf(req), String(req.params.corpusId), String(req.params.assignmentId), version, actorOf(req)));
 });

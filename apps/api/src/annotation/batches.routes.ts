@@ -1,11 +1,10 @@
 import { createBatchInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
 import { z } from "zod";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { createBatch, getBatchDetail, getBatchesPage } from "./batches.service";
 import { getBatchAgreement } from "./review.service";
-import { idParams, noQuery, validate } from "@/security/route-meta";
+import { idParams, noQuery, validate, validated } from "@/security/route-meta";
 
 const batchListQuerySchema = z.object({
   corpusId: z.uuid("Not a corpus id.").optional(),
@@ -17,17 +16,18 @@ const batchListQuerySchema = z.object({
 export const batchesRouter = Router({ mergeParams: true });
 
 batchesRouter.get("/batches", allow("manager"), validate({ query: batchListQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(batchListQuerySchema, req.query, "query");
+  const query = validated(req, "query", batchListQuerySchema);
   res.json(await getBatchesPage(memberOf(req).organizationId, query));
 });
 
-batchesRouter.get("/corpora/:corpusId/batches", allow("manager"), validate({ params: idParams("corpusId"), query: batchListQuerySchema.omit({ corpusId: true }) }), async (req, res) => {
-  const query = parseOrThrow(batchListQuerySchema.omit({ corpusId: true }), req.query, "query");
+const corpusBatchListQuery = batchListQuerySchema.omit({ corpusId: true });
+batchesRouter.get("/corpora/:corpusId/batches", allow("manager"), validate({ params: idParams("corpusId"), query: corpusBatchListQuery }), async (req, res) => {
+  const query = validated(req, "query", corpusBatchListQuery);
   res.json(await getBatchesPage(memberOf(req).organizationId, { ...query, corpusId: String(req.params.corpusId) }));
 });
 
 batchesRouter.post("/corpora/:corpusId/batches", allow("manager"), validate({ params: idParams("corpusId"), query: noQuery, body: createBatchInputSchema }), async (req, res) => {
-  const input = parseOrThrow(createBatchInputSchema, req.body);
+  const input = validated(req, "body", createBatchInputSchema);
   res.status(201).json(await createBatch(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 

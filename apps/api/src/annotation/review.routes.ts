@@ -1,10 +1,9 @@
 import { returnAssignmentInputSchema, settleDocumentInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
 import { z } from "zod";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { acceptAssignment, getReviewDocument, listReview, returnAssignment, settleDocument } from "./review.service";
-import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
+import { idParams, noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 const reviewQuerySchema = z.object({ corpusId: z.uuid("Not a corpus id.").optional(), batchId: z.uuid("Not a batch id.").optional() });
 
@@ -12,7 +11,7 @@ const reviewQuerySchema = z.object({ corpusId: z.uuid("Not a corpus id.").option
 export const reviewRouter = Router({ mergeParams: true });
 
 reviewRouter.get("/review", allow("manager"), validate({ query: reviewQuerySchema }), async (req, res) => {
-  const filter = parseOrThrow(reviewQuerySchema, req.query, "query");
+  const filter = validated(req, "query", reviewQuerySchema);
   res.json({ items: await listReview(memberOf(req).organizationId, filter), nextCursor: null });
 });
 
@@ -22,7 +21,7 @@ reviewRouter.get("/corpora/:corpusId/batches/:batchId/documents/:documentId/revi
 });
 
 reviewRouter.post("/corpora/:corpusId/batches/:batchId/documents/:documentId/settle", allow("manager"), validate({ params: idParams("corpusId", "batchId", "documentId"), query: noQuery, body: settleDocumentInputSchema }), async (req, res) => {
-  const { spans } = parseOrThrow(settleDocumentInputSchema, req.body);
+  const { spans } = validated(req, "body", settleDocumentInputSchema);
   const { corpusId, batchId, documentId } = req.params as Record<string, string>;
   await settleDocument(memberOf(req).organizationId, corpusId!, batchId!, documentId!, spans, actorOf(req));
   res.status(204).end();
@@ -34,7 +33,7 @@ reviewRouter.post("/corpora/:corpusId/assignments/:assignmentId/accept", allow("
 });
 
 reviewRouter.post("/corpora/:corpusId/assignments/:assignmentId/return", allow("manager"), validate({ params: idParams("corpusId", "assignmentId"), query: noQuery, body: returnAssignmentInputSchema }), async (req, res) => {
-  const { comment } = parseOrThrow(returnAssignmentInputSchema, req.body);
+  const { comment } = validated(req, "body", returnAssignmentInputSchema);
   await returnAssignment(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.assignmentId), comment, actorOf(req));
   res.status(204).end();
 });

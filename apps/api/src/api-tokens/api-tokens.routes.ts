@@ -1,9 +1,8 @@
 import { createApiTokenInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { createApiToken, listApiTokens, revokeApiToken } from "./api-tokens.service";
-import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
+import { idParams, noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 /** Data lead and admin routes below /orgs/:orgId. */
 export const apiTokensRouter = Router({ mergeParams: true });
@@ -13,7 +12,7 @@ apiTokensRouter.get("/tokens", allow("data_lead"), validate({ query: noQuery }),
 });
 
 apiTokensRouter.post("/tokens", allow("data_lead"), validate({ query: noQuery, body: createApiTokenInputSchema }), async (req, res) => {
-  const input = parseOrThrow(createApiTokenInputSchema, req.body);
+  const input = validated(req, "body", createApiTokenInputSchema);
   res.setHeader("Cache-Control", "no-store");
   res.status(201).json(await createApiToken(memberOf(req).organizationId, input, actorOf(req)));
 });

@@ -6,7 +6,7 @@ import {
   verifyEmailInputSchema,
 } from "@tagloom/contracts";
 import { type RequestHandler, Router } from "express";
-import { UnauthorizedError, parseOrThrow } from "@/errors";
+import { UnauthorizedError } from "@/errors";
 import {
   confirmPasswordReset,
   getMe,
@@ -18,21 +18,21 @@ import {
   verifyEmail,
 } from "./auth.service";
 import { endSession, requireSession, startSession } from "./session.middleware";
-import { noBody, noQuery, validate } from "@/security/route-meta";
+import { noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 /** Account routes: /auth/* and /me. `limiter` guards the routes an attacker would hammer. */
 export function authRouter(limiter: RequestHandler): Router {
   const r = Router();
 
   r.post("/auth/sign-up", limiter, validate({ query: noQuery, body: signUpInputSchema }), async (req, res) => {
-    const input = parseOrThrow(signUpInputSchema, req.body);
+    const input = validated(req, "body", signUpInputSchema);
     const { userId, organizationId } = await signUp(input, req.ip ?? null);
     await startSession(res, userId, req.auth?.sessionId ?? null);
     res.status(201).json({ ...(await getMe(userId)), organizationId });
   });
 
   r.post("/auth/sign-in", limiter, validate({ query: noQuery, body: signInInputSchema }), async (req, res) => {
-    const input = parseOrThrow(signInInputSchema, req.body);
+    const input = validated(req, "body", signInInputSchema);
     const user = await signIn(input, req.ip ?? null);
     // A new session id at every sign-in (no fixation of an old cookie).
     await startSession(res, user.id, req.auth?.sessionId ?? null);
@@ -48,19 +48,19 @@ export function authRouter(limiter: RequestHandler): Router {
   });
 
   r.post("/auth/password-reset/request", limiter, validate({ query: noQuery, body: passwordResetRequestSchema }), async (req, res) => {
-    const { email } = parseOrThrow(passwordResetRequestSchema, req.body);
+    const { email } = validated(req, "body", passwordResetRequestSchema);
     await requestPasswordReset(email);
     res.status(202).json({ ok: true });
   });
 
   r.post("/auth/password-reset/confirm", limiter, validate({ query: noQuery, body: passwordResetConfirmSchema }), async (req, res) => {
-    const { token, password } = parseOrThrow(passwordResetConfirmSchema, req.body);
+    const { token, password } = validated(req, "body", passwordResetConfirmSchema);
     await confirmPasswordReset(token, password, req.ip ?? null);
     res.status(204).end();
   });
 
   r.post("/auth/verify-email", validate({ query: noQuery, body: verifyEmailInputSchema }), async (req, res) => {
-    const { token } = parseOrThrow(verifyEmailInputSchema, req.body);
+    const { token } = validated(req, "body", verifyEmailInputSchema);
     await verifyEmail(token, req.ip ?? null);
     res.status(204).end();
   });

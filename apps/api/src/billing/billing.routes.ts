@@ -1,10 +1,9 @@
 import { changeSeatsInputSchema, startCheckoutInputSchema } from "@tagloom/contracts";
 import express, { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { changeSeats, getBillingState, retryPayment, setCancelAtPeriodEnd, startCheckout } from "./billing.service";
 import { handleWebhook } from "./billing.webhooks";
-import { noBody, noQuery, rawBody, validate } from "@/security/route-meta";
+import { noBody, noQuery, rawBody, validate, validated } from "@/security/route-meta";
 
 /** Admin routes below /orgs/:orgId. */
 export const billingRouter = Router({ mergeParams: true });
@@ -14,12 +13,12 @@ billingRouter.get("/billing", allow(), validate({ query: noQuery }), async (req,
 });
 
 billingRouter.post("/billing/checkout", allow(), validate({ query: noQuery, body: startCheckoutInputSchema }), async (req, res) => {
-  const { seats } = parseOrThrow(startCheckoutInputSchema, req.body);
+  const { seats } = validated(req, "body", startCheckoutInputSchema);
   res.status(201).json(await startCheckout(memberOf(req).organizationId, seats, actorOf(req)));
 });
 
 billingRouter.post("/billing/seats", allow(), validate({ query: noQuery, body: changeSeatsInputSchema }), async (req, res) => {
-  const { seats } = parseOrThrow(changeSeatsInputSchema, req.body);
+  const { seats } = validated(req, "body", changeSeatsInputSchema);
   res.json(await changeSeats(memberOf(req).organizationId, seats, actorOf(req)));
 });
 

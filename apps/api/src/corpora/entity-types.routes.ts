@@ -1,10 +1,9 @@
 import { createEntityTypeInputSchema, deleteEntityTypeInputSchema, updateEntityTypeInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
 import { listEntityTypes } from "./corpora.service";
 import { changeEntityType, createEntityType, deleteEntityType, getEntityTypeUsage } from "./entity-types.service";
-import { bodyOrEmpty, idParams, noQuery, validate } from "@/security/route-meta";
+import { bodyOrEmpty, idParams, noQuery, validate, validated } from "@/security/route-meta";
 
 export const entityTypesRouter = Router({ mergeParams: true });
 
@@ -13,12 +12,12 @@ entityTypesRouter.get("/corpora/:corpusId/entity-types", anyMember, validate({ p
 });
 
 entityTypesRouter.post("/corpora/:corpusId/entity-types", allow("manager"), validate({ params: idParams("corpusId"), query: noQuery, body: createEntityTypeInputSchema }), async (req, res) => {
-  const input = parseOrThrow(createEntityTypeInputSchema, req.body);
+  const input = validated(req, "body", createEntityTypeInputSchema);
   res.status(201).json(await createEntityType(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 
 entityTypesRouter.patch("/corpora/:corpusId/entity-types/:typeId", allow("manager"), validate({ params: idParams("corpusId", "typeId"), query: noQuery, body: updateEntityTypeInputSchema }), async (req, res) => {
-  const input = parseOrThrow(updateEntityTypeInputSchema, req.body);
+  const input = validated(req, "body", updateEntityTypeInputSchema);
   const { organizationId } = memberOf(req);
   res.json(await changeEntityType(organizationId, String(req.params.corpusId), String(req.params.typeId), input, actorOf(req)));
 });
@@ -27,8 +26,9 @@ entityTypesRouter.get("/corpora/:corpusId/entity-types/:typeId/usage", allow("ma
   res.json(await getEntityTypeUsage(memberOf(req).organizationId, String(req.params.corpusId), String(req.params.typeId)));
 });
 
-entityTypesRouter.delete("/corpora/:corpusId/entity-types/:typeId", allow("manager"), validate({ params: idParams("corpusId", "typeId"), query: noQuery, body: bodyOrEmpty(deleteEntityTypeInputSchema) }), async (req, res) => {
-  const { confirm } = parseOrThrow(deleteEntityTypeInputSchema, req.body ?? {});
+const deleteEntityTypeBody = bodyOrEmpty(deleteEntityTypeInputSchema);
+entityTypesRouter.delete("/corpora/:corpusId/entity-types/:typeId", allow("manager"), validate({ params: idParams("corpusId", "typeId"), query: noQuery, body: deleteEntityTypeBody }), async (req, res) => {
+  const { confirm } = validated(req, "body", deleteEntityTypeBody);
   const { organizationId } = memberOf(req);
   await deleteEntityType(organizationId, String(req.params.corpusId), String(req.params.typeId), confirm === true, actorOf(req));
   res.status(204).end();

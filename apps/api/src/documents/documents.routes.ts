@@ -1,19 +1,18 @@
 import { documentListQuerySchema, setSplitInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf, viewCorpusData } from "@/orgs/org-access";
 import { deleteDocumentForGood, getDocumentDetail, getDocumentsPage, setDocumentSplit } from "./documents.service";
-import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
+import { idParams, noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 export const documentsRouter = Router({ mergeParams: true });
 
 documentsRouter.get("/corpora/:corpusId/documents", viewCorpusData, validate({ params: idParams("corpusId"), query: documentListQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(documentListQuerySchema, req.query, "query");
+  const query = validated(req, "query", documentListQuerySchema);
   res.json(await getDocumentsPage(memberOf(req).organizationId, String(req.params.corpusId), query));
 });
 
 documentsRouter.post("/corpora/:corpusId/documents/split", allow("manager"), validate({ params: idParams("corpusId"), query: noQuery, body: setSplitInputSchema }), async (req, res) => {
-  const input = parseOrThrow(setSplitInputSchema, req.body);
+  const input = validated(req, "body", setSplitInputSchema);
   res.json(await setDocumentSplit(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 

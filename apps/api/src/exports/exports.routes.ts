@@ -1,9 +1,8 @@
 import { exportQuerySchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { planExport, writeExport } from "./exports.service";
-import { idParams, validate } from "@/security/route-meta";
+import { idParams, validate, validated } from "@/security/route-meta";
 
 export const exportsRouter = Router({ mergeParams: true });
 
@@ -11,7 +10,7 @@ export const exportsRouter = Router({ mergeParams: true });
 // error after the first byte can only cut the download short, so the connection is destroyed
 // (the client sees a failed download rather than a truncated file that looks complete).
 exportsRouter.get("/corpora/:corpusId/exports", allow("manager", "data_lead"), validate({ params: idParams("corpusId"), query: exportQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(exportQuerySchema, req.query, "query");
+  const query = validated(req, "query", exportQuerySchema);
   const { organizationId } = memberOf(req);
   const corpusId = String(req.params.corpusId);
   const plan = await planExport(organizationId, corpusId, query);

@@ -2,10 +2,10 @@ import { createInvitationInputSchema } from "@tagloom/contracts";
 import { Router } from "express";
 import { requireSession } from "@/auth/session.middleware";
 import { isUuid } from "@/db/types";
-import { NotFoundError, parseOrThrow } from "@/errors";
+import { NotFoundError } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { acceptInvitation, createInvitation, listInvitations, previewInvitation, resendInvitation, revokeInvitation } from "./invitations.service";
-import { idParams, noBody, noQuery, validate } from "@/security/route-meta";
+import { idParams, noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 /** Admin routes below /orgs/:orgId. */
 export const invitationsRouter = Router({ mergeParams: true });
@@ -15,7 +15,7 @@ invitationsRouter.get("/invitations", allow(), validate({ query: noQuery }), asy
 });
 
 invitationsRouter.post("/invitations", allow(), validate({ query: noQuery, body: createInvitationInputSchema }), async (req, res) => {
-  const input = parseOrThrow(createInvitationInputSchema, req.body);
+  const input = validated(req, "body", createInvitationInputSchema);
   res.status(201).json(await createInvitation(memberOf(req).organizationId, input, actorOf(req)));
 });
 

@@ -1,5 +1,5 @@
 import { findUnstorableText } from "@tagloom/contracts";
-import type { RequestHandler } from "express";
+import type { Request, RequestHandler } from "express";
 import { z } from "zod";
 import { ValidationError, zodFieldErrors } from "@/errors";
 
@@ -52,6 +52,21 @@ export function bodyOrEmpty<T extends z.ZodType>(schema: T): z.ZodType<z.output<
 export const rawBody = z.union([z.undefined(), z.instanceof(Buffer)]);
 
 const WHAT = { params: "path", query: "query", body: "request" } as const;
+type Part = keyof typeof WHAT;
+
+/** What validate parsed, per request, with the schema it parsed each part with. */
+const parsedInput = new WeakMap<Request, Partial<Record<Part, { schema: z.ZodType; data: unknown }>>>();
+
+/**
+ * The value validate parsed from this part of the request (zod's output: defaults applied,
+ * values coerced), so that a handler reads its input without parsing it a second time. Pass the
+ * very schema object the route's validate was given; anything else is a wiring mistake and throws.
+ */
+export function validated<S extends z.ZodType>(req: Request, part: Part, schema: S): z.output<S> {
+  const hit = parsedInput.get(req)?.[part];
+  if (!hit || hit.schema !== schema) throw new Error(`${req.method} ${req.originalUrl.split("?")[0]}: the ${part} was not validated with this schema.`);
+  return hit.data as z.output<S>;
+}
 
 /**
  * Validates a route's params, query and body with zod before the handler runs: a failure is a
@@ -60,6 +75,7 @@ const WHAT = { params: "path", query: "query", body: "request" } as const;
  */
 export function validate(schemas: InputSchemas): RequestHandler {
   return withMeta((req, _res, next) => {
+    const parsed = { ...parsedInput.get(req) };
     for (const part of ["params", "query", "body"] as const) {
       const schema = schemas[part];
       const value: unknown = req[part];
@@ -69,7 +85,9 @@ export function validate(schemas: InputSchemas): RequestHandler {
       if (!schema) continue;
       const result = schema.safeParse(value);
       if (!result.success) throw new ValidationError(`The ${WHAT[part]} is not valid.`, { fields: zodFieldErrors(result.error) });
+      parsed[part] = { schema, data: result.data };
     }
+    parsedInput.set(req, parsed);
     next();
   }, { input: schemas });
 }

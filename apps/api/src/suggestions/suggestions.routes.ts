@@ -1,9 +1,8 @@
 import { setSuggesterInputSchema, uncertainQuerySchema } from "@tagloom/contracts";
 import { Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, anyMember, memberOf } from "@/orgs/org-access";
 import { getSuggesterStatus, getUncertainRanking, setSuggester } from "./suggestions.service";
-import { idParams, noQuery, validate } from "@/security/route-meta";
+import { idParams, noQuery, validate, validated } from "@/security/route-meta";
 
 /** The corpus's suggester and the most-uncertain ranking, below /orgs/:orgId. */
 export const suggestionsRouter = Router({ mergeParams: true });
@@ -13,11 +12,11 @@ suggestionsRouter.get("/corpora/:corpusId/suggester", anyMember, validate({ para
 });
 
 suggestionsRouter.put("/corpora/:corpusId/suggester", allow("data_lead"), validate({ params: idParams("corpusId"), query: noQuery, body: setSuggesterInputSchema }), async (req, res) => {
-  const input = parseOrThrow(setSuggesterInputSchema, req.body);
+  const input = validated(req, "body", setSuggesterInputSchema);
   res.json(await setSuggester(memberOf(req).organizationId, String(req.params.corpusId), input, actorOf(req)));
 });
 
 suggestionsRouter.get("/corpora/:corpusId/uncertain", allow("manager", "data_lead"), validate({ params: idParams("corpusId"), query: uncertainQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(uncertainQuerySchema, req.query, "query");
+  const query = validated(req, "query", uncertainQuerySchema);
   res.json(await getUncertainRanking(memberOf(req).organizationId, String(req.params.corpusId), query));
 });

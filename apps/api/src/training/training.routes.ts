@@ -1,11 +1,10 @@
 import { runListQuerySchema, startRunInputSchema, taggerListQuerySchema } from "@tagloom/contracts";
 import { type Request, type Response, Router } from "express";
-import { parseOrThrow } from "@/errors";
 import { actorOf, allow, memberOf } from "@/orgs/org-access";
 import { compareTaggers, getComparisonDocument } from "./comparisons.service";
 import { downloadTaggerEvaluation, downloadTaggerModel, getTagger, listTaggers } from "./taggers.service";
 import { cancelRun, getRun, listRuns, repeatRun, startRun } from "./training-runs.service";
-import { bodyOrEmpty, idParams, noBody, noQuery, validate } from "@/security/route-meta";
+import { bodyOrEmpty, idParams, noBody, noQuery, validate, validated } from "@/security/route-meta";
 
 // Roles (abilities `train`, `viewTraining`, `downloadTaggers` in @tagloom/contracts): data leads
 // and admins start, cancel and repeat runs and download taggers; managers read runs, taggers and
@@ -24,13 +23,14 @@ function sendFile(res: Response, file: { filename: string; text: string }): void
   res.send(Buffer.from(file.text, "utf8"));
 }
 
-trainingRouter.post("/corpora/:corpusId/runs", trainers, validate({ params: idParams("corpusId"), query: noQuery, body: bodyOrEmpty(startRunInputSchema) }), async (req, res) => {
-  const input = parseOrThrow(startRunInputSchema, req.body ?? {});
+const startRunBody = bodyOrEmpty(startRunInputSchema);
+trainingRouter.post("/corpora/:corpusId/runs", trainers, validate({ params: idParams("corpusId"), query: noQuery, body: startRunBody }), async (req, res) => {
+  const input = validated(req, "body", startRunBody);
   res.status(202).json(await startRun(memberOf(req).organizationId, ids(req).corpusId, input, actorOf(req)));
 });
 
 trainingRouter.get("/corpora/:corpusId/runs", readers, validate({ params: idParams("corpusId"), query: runListQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(runListQuerySchema, req.query, "query");
+  const query = validated(req, "query", runListQuerySchema);
   res.json(await listRuns(memberOf(req).organizationId, ids(req).corpusId, query));
 });
 
@@ -47,7 +47,7 @@ trainingRouter.post("/corpora/:corpusId/runs/:runId/repeat", trainers, validate(
 });
 
 trainingRouter.get("/corpora/:corpusId/taggers", readers, validate({ params: idParams("corpusId"), query: taggerListQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(taggerListQuerySchema, req.query, "query");
+  const query = validated(req, "query", taggerListQuerySchema);
   res.json(await listTaggers(memberOf(req).organizationId, ids(req).corpusId, query));
 });
 

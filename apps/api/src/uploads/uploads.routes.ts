@@ -2,12 +2,12 @@ import { fileListQuerySchema, pageQuerySchema, uploadOptionsSchema } from "@tagl
 import { type RequestHandler, Router } from "express";
 import multer from "multer";
 import { getCorpus, getWritableCorpus } from "@/corpora/corpora.service";
-import { AppError, PayloadTooLargeError, ValidationError, parseOrThrow } from "@/errors";
+import { AppError, PayloadTooLargeError, ValidationError } from "@/errors";
 import { actorOf, allow, anyMember, memberOf, viewCorpusData } from "@/orgs/org-access";
 import { getUploadLimits } from "./upload-limits";
 import { type ReceivedFile, boundedMemoryStorage, formatBytes } from "./upload-storage";
 import { getFilesPage, getUploadResult, getUploadsPage, receiveUpload } from "./uploads.service";
-import { bodyOrEmpty, idParams, noQuery, validate } from "@/security/route-meta";
+import { bodyOrEmpty, idParams, noQuery, validate, validated } from "@/security/route-meta";
 
 export const uploadsRouter = Router({ mergeParams: true });
 
@@ -69,7 +69,7 @@ uploadsRouter.post("/corpora/:corpusId/uploads", allow("manager"), corpusIsWrita
 });
 
 uploadsRouter.get("/corpora/:corpusId/uploads", viewCorpusData, validate({ params: idParams("corpusId"), query: pageQuerySchema }), async (req, res) => {
-  const page = parseOrThrow(pageQuerySchema, req.query, "query");
+  const page = validated(req, "query", pageQuerySchema);
   res.json(await getUploadsPage(memberOf(req).organizationId, String(req.params.corpusId), page));
 });
 
@@ -78,6 +78,6 @@ uploadsRouter.get("/corpora/:corpusId/uploads/:uploadId", viewCorpusData, valida
 });
 
 uploadsRouter.get("/corpora/:corpusId/files", viewCorpusData, validate({ params: idParams("corpusId"), query: fileListQuerySchema }), async (req, res) => {
-  const query = parseOrThrow(fileListQuerySchema, req.query, "query");
+  const query = validated(req, "query", fileListQuerySchema);
   res.json(await getFilesPage(memberOf(req).organizationId, String(req.params.corpusId), query));
 });

@@ -1,12 +1,12 @@
-import { type ChildProcess, spawn } from "node:child_process";
-import { join } from "node:path";
 import type { UploadResult } from "@tagloom/contracts";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { env, repoRoot } from "@/config/env";
+import { beforeAll, describe, expect, it } from "vitest";
+import { env } from "@/config/env";
 import { db } from "@/db/knex";
 import { createCorpusWithTypes, uploadFiles } from "../support/corpora";
 import { makePdf } from "../support/files/pdf";
 import { type SignedIn, type TestServer, signUpFounder, startTestServer } from "../support/http";
+import { stopProcess } from "../support/server-process";
+import { startWorkerProcess } from "../support/workers";
 
 // Workers are separate processes (src/worker.ts), as in production. The first is killed with
 // SIGKILL while it is reading the files of two uploads; pg-boss hands both jobs to a second
@@ -15,7 +15,6 @@ const EXPIRE_SECONDS = 10;
 let server: TestServer;
 let admin: SignedIn;
 let corpusId: string;
-const children: ChildProcess[] = [];
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -24,29 +23,6 @@ beforeAll(async () => {
   // Jobs this process sends expire quickly, so a dead worker's job is retried within the test.
   env.EXTRACT_JOB_EXPIRE_SECONDS = EXPIRE_SECONDS;
 });
-
-afterAll(() => {
-  for (const child of children) if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
-});
-
-function startWorker(): ChildProcess {
-  // node with tsx's loader (not the tsx launcher) so that SIGKILL hits the process running the job.
-  const child = spawn(process.execPath, ["--import", "tsx", "src/worker.ts"], {
-    cwd: join(repoRoot, "apps/api"),
-    env: { ...process.env, JOB_MAINTENANCE_SECONDS: "1", LOG_LEVEL: "silent" },
-    stdio: "ignore",
-  });
-  children.push(child);
-  return child;
-}
-
-async function stopWorker(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  const exited = new Promise((r) => child.once("exit", r));
-  child.kill("SIGTERM");
-  await Promise.race([exited, new Promise((r) => setTimeout(r, 15_000))]);
-  if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
-}
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const WORDS = ["brell", "quon", "tavish", "morrow", "pellin", "ostrel", "viska", "dunmore", "halvey", "sorrel"];
@@ -90,7 +66,7 @@ describe("an extraction worker killed mid-job", () => {
     const fileIds = uploads.flatMap((u) => u.files.map((f) => f.id));
     expect((await fileStates(ids)).map((f) => f.state)).toEqual(Array(6).fill("queued"));
 
-    const first = startWorker();
+    const first = startWorkerProcess();
     // Kill it once both jobs are running and have claimed their files, before any is stored.
     const until = Date.now() + 60_000;
     for (;;) {
@@ -107,7 +83,7 @@ describe("an extraction worker killed mid-job", () => {
     expect(afterKill.map((f) => f.state)).toEqual(Array(6).fill("processing"));
     expect(await db("documents").whereIn("upload_file_id", fileIds).count<{ n: number }[]>({ n: "*" })).toEqual([{ n: 0 }]);
 
-    const second = startWorker();
+    const second = startWorkerProcess();
     const done = Date.now() + 120_000;
     let files = afterKill;
     while (files.some((f) => f.state === "queued" || f.state === "processing")) {
@@ -131,6 +107,6 @@ describe("an extraction worker killed mid-job", () => {
     const jobs = await extractJobs(ids);
     expect(jobs.map((j) => j.state)).toEqual(["completed", "completed"]);
     expect(jobs.every((j) => j.retry_count >= 1)).toBe(true);
-    await stopWorker(second);
+    await stopProcess(second);
   }, 200_000);
 });
