@@ -92,7 +92,7 @@ export function informal(documents: readonly ColumnDocument[], seed: number): Co
 const lowerCase = (documents: readonly ColumnDocument[]): ColumnDocument[] =>
   documents.map((d) => ({ sentences: d.sentences.map((s) => ({ words: s.words.map((w) => w.toLowerCase()), tags: s.tags })) }));
 
-const VARIANTS: Array<{ name: string; transform: (docs: readonly ColumnDocument[], seed: number) => ColumnDocument[] }> = [
+export const VARIANTS: Array<{ name: string; transform: (docs: readonly ColumnDocument[], seed: number) => ColumnDocument[] }> = [
   { name: "edited", transform: (docs) => [...docs] },
   { name: "lower", transform: (docs) => lowerCase(docs) },
   { name: "noisy", transform: informal },

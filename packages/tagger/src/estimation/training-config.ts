@@ -79,6 +79,12 @@ export type TrainingConfig = {
    * emission scores of the count model (perceptron.ts); 0 = off.
    */
   readonly perceptron: number;
+  /**
+   * What the perceptron's weights are on: `symbol`, one weight per (symbol, tag), first-order
+   * only; `word-type`, weights per (feature, tag) of the word-type features of
+   * word-type-features.ts (lower-cased form, affixes, shape, word class, flags, cluster prefixes).
+   */
+  readonly perceptronFeatures: "symbol" | "word-type";
   /** Reproduce NLTK's supervised HMM exactly (see nltk-compatible.ts); ignores the options above it names. */
   readonly nltkCompatible: boolean;
 };
@@ -117,6 +123,7 @@ export const DEFAULT_TRAINING_CONFIG: TrainingConfig = {
   calibration: "platt-length",
   clusters: 0,
   perceptron: 0,
+  perceptronFeatures: "symbol",
   nltkCompatible: false,
 };
 
@@ -160,7 +167,8 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (config.calibration !== "platt" && config.calibration !== "platt-length" && config.calibration !== "none") throw new RangeError(`calibration must be platt, platt-length or none, got ${config.calibration}`);
   if (!Number.isInteger(config.clusters) || config.clusters < 0) throw new RangeError(`clusters must be an integer ≥ 0, got ${config.clusters}`);
   if (!Number.isInteger(config.perceptron) || config.perceptron < 0) throw new RangeError(`perceptron must be an integer ≥ 0, got ${config.perceptron}`);
-  if (config.perceptron > 0 && config.order !== 1) throw new RangeError("perceptron needs order 1");
+  if (config.perceptronFeatures !== "symbol" && config.perceptronFeatures !== "word-type") throw new RangeError(`perceptronFeatures must be symbol or word-type, got ${String(config.perceptronFeatures)}`);
+  if (config.perceptron > 0 && config.order !== 1 && config.perceptronFeatures === "symbol") throw new RangeError("perceptron needs order 1");
   if (!Number.isInteger(config.seed)) throw new RangeError(`seed must be an integer, got ${config.seed}`);
   checkPositionBuckets(config.positionBuckets);
 }

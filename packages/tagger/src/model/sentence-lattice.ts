@@ -3,8 +3,7 @@ import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
-import { clusterOf } from "../estimation/brown-clusters";
-import { addEmissionAdjustments } from "../estimation/emission-adjustments";
+import { addEmissionAdjustments, emissionRowIsOwn } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { addNodeLogRatio, createSuffixTrie, suffixNode, type SuffixTrie } from "./suffix-trie";
@@ -367,8 +366,9 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
     group = model.vocabulary.scheme === "none" ? suffixGroupOf(model.vocabulary, word, first) : symbol - model.vocabulary.words.length;
     suffix = suffixNode(cache.suffix, word, group);
   }
-  // A word the clustering knows adds its cluster's ratio (cluster-emissions.ts), so its row is its own.
-  const clustered = model.clusters !== null && symbol >= model.vocabulary.words.length && clusterOf(model.clusters.clusters, word) >= 0;
+  // A word the clustering knows adds its cluster's ratio (cluster-emissions.ts), and with
+  // word-type feature weights every word adds its own (emission-adjustments.ts): such rows are their own.
+  const clustered = emissionRowIsOwn(model, word, symbol);
   let row = clustered ? -1 : suffix < 0 ? cache.symbolRows[symbol] : getPair(cache.suffixRows, symbol, suffix, -1);
   if (row < 0) {
     const W = 2 * K + 1;

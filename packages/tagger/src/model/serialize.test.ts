@@ -21,6 +21,7 @@ describe("serializeModel / loadModel", () => {
     ["informal classes", { wordClasses: "informal" as const }],
     ["word clusters", { clusters: 4 }],
     ["perceptron", { perceptron: 2 }],
+    ["perceptron over word-type features", { perceptron: 2, perceptronFeatures: "word-type" as const }],
     ["NLTK-compatible", { nltkCompatible: true }],
   ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
     const { model } = trainTagger(tinyDocuments, config);
@@ -57,7 +58,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3, 4 and 5/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3, 4, 5 and 6/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -151,7 +152,7 @@ describe("schema version 5", () => {
   it("stores the word clusters and their prefix statistics and reads them back to the same tags and scores", () => {
     const { model } = trainTagger(documents, { clusters: 5 }, { unlabelled: tinyUnlabelled });
     const json = serializeModel(model);
-    expect(json.schemaVersion).toBe(5);
+    expect(json.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
     const stored = json.parameters.clusters!;
     // Unlabelled words are clustered too, each into one of the 5 clusters.
     expect(stored.words).toContain("Tirranel");
@@ -190,5 +191,41 @@ describe("schema version 5", () => {
     const missing = JSON.parse(JSON.stringify(json));
     delete missing.parameters.clusters;
     expect(() => loadModel(missing)).toThrow(/parameters.clusters: expected an object/);
+  });
+});
+
+describe("schema version 6", () => {
+  it("a version-5 file (word clusters and symbol perceptron weights, written by the version-5 writer) loads and tags identically", () => {
+    // model-v5.json: trained on the tiny corpus three times over with --clusters 4 --perceptron 2
+    // (and the tiny unlabelled text) by the version-5 code, with the tags, chunk confidences and
+    // log-likelihoods it gave then (invented words only).
+    const fixture = JSON.parse(readFileSync(fileURLToPath(new URL("../testing/model-v5.json", import.meta.url)), "utf8")) as {
+      model: { schemaVersion: number; config: Record<string, unknown> };
+      sentences: string[][];
+      expected: { tags: string[]; chunks: { type: string; start: number; end: number; confidence: number }[]; logLikelihood: number }[];
+    };
+    expect(fixture.model.schemaVersion).toBe(5);
+    expect(fixture.model.config.perceptronFeatures).toBeUndefined();
+    const model = loadModel(fixture.model);
+    expect(model.config.perceptronFeatures).toBe("symbol");
+    expect(model.corrections).not.toBeNull();
+    expect(model.features).toBeNull();
+    fixture.sentences.forEach((words, i) => expect(tagSentence(model, words)).toEqual(fixture.expected[i]));
+    const again = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    fixture.sentences.forEach((words, i) => expect(tagSentence(again, words)).toEqual(fixture.expected[i]));
+  });
+
+  it("stores the word-type feature weights and refuses them when they disagree with the config or are damaged", () => {
+    const json = serializeModel(trainTagger(tinyDocuments, { perceptron: 2, perceptronFeatures: "word-type" }).model);
+    expect(json.parameters.features!.names.length).toBeGreaterThan(0);
+    expect(json.parameters.corrections).toBeNull();
+    expect(() => loadModel({ ...json, config: { ...json.config, perceptronFeatures: "symbol" } })).toThrow(/parameters.corrections: present exactly when/);
+    expect(() => loadModel({ ...json, schemaVersion: 5 })).toThrow(/parameters.corrections: present exactly when/);
+    const damaged = JSON.parse(JSON.stringify(json));
+    damaged.parameters.features.names[1] = damaged.parameters.features.names[0];
+    expect(() => loadModel(damaged)).toThrow(/parameters.features: feature weights: feature names must be distinct/);
+    const short = JSON.parse(JSON.stringify(json));
+    short.parameters.features.names.pop();
+    expect(() => loadModel(short)).toThrow(/parameters.features.weights.length/);
   });
 });

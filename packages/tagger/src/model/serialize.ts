@@ -7,17 +7,20 @@ import { createVocabulary, symbolCount } from "../estimation/vocabulary";
 import type { PlattCalibration } from "../estimation/platt";
 import { createWordClusters } from "../estimation/brown-clusters";
 import { createClusterEmissions, type ClusterEmissions } from "../estimation/cluster-emissions";
+import { createFeatureWeights, type FeatureWeights } from "../estimation/word-type-features";
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 5;
+export const MODEL_SCHEMA_VERSION = 6;
 /**
  * Versions this release reads: version 1 had no calibration (raw chunk marginals); version 2
  * could not name the `informal` word classes (version 3); version 3's calibration had no span
  * length coefficient `c` (version 4; an older file reads with c = 0, i.e. as before); versions
- * 1–4 had no word clusters (version 5; an older file reads with clusters off, i.e. as before).
+ * 1–4 had no word clusters (version 5; an older file reads with clusters off, i.e. as before);
+ * versions 1–5 had no word-type feature weights (version 6; an older file's perceptron, if any,
+ * has symbol weights, and it reads and tags as before).
  */
-const READABLE_VERSIONS = [1, 2, 3, 4, 5];
+const READABLE_VERSIONS = [1, 2, 3, 4, 5, 6];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -61,6 +64,11 @@ export type SerializedModel = {
     clusters: { words: string[]; cluster: number[]; paths: string[]; maxLength: number; theta: number; nodes: Array<[string, number[], number[]]> } | null;
     /** Perceptron weights added to the emission scores, S×K symbol-major (version 5; absent = none). */
     corrections?: SparseArray | null;
+    /**
+     * Perceptron weights of the word-type features (version 6; absent = none): feature strings
+     * in id order and their F×K weights, feature-major.
+     */
+    features?: { names: string[]; weights: SparseArray } | null;
     /** Informational: values estimated from the counts (recomputed on load). */
     derived: { trigramLambdas: number[] | null };
   };
@@ -116,6 +124,7 @@ export function serializeModel(model: TaggerModel): SerializedModel {
       suffix: model.suffix === null ? null : { maxLength: model.suffix.maxLength, theta: model.suffix.theta, nodes: suffixNodesToJson(model.suffix) },
       clusters: model.clusters === null ? null : clustersToJson(model.clusters),
       corrections: model.corrections === null ? null : toSparse(model.corrections),
+      features: model.features === null ? null : { names: [...model.features.names], weights: toSparse(model.features.weights) },
       derived: { trigramLambdas: model.parameters.trigram === null ? null : [...model.parameters.trigram.lambdas] },
     },
   };
@@ -219,7 +228,8 @@ export function loadModel(json: unknown): TaggerModel {
   try {
     const stored = object(root.config, "config") as Partial<TrainingConfig>;
     // Version 1 predates calibration and versions 1–4 clusters: such a model was trained without them.
-    const older = version < 5 ? { ...stored, clusters: 0, perceptron: 0 } : stored;
+    // Versions 1–5 predate word-type features: a perceptron there has symbol weights.
+    const older = version < 5 ? { ...stored, clusters: 0, perceptron: 0 } : version < 6 ? { ...stored, perceptronFeatures: "symbol" as const } : stored;
     config = resolveTrainingConfig(version === 1 ? { ...older, calibration: "none" } : older);
   } catch (error) {
     throw new ModelFormatError("config", (error as Error).message);
@@ -281,7 +291,20 @@ export function loadModel(json: unknown): TaggerModel {
     clusters = createClusterEmissions(wordClusters, readSuffixStatistics(cj, "parameters.clusters", K));
   }
   const corrections = version >= 5 && p.corrections !== undefined && p.corrections !== null ? fromSparse(p.corrections, S * K, "parameters.corrections") : null;
-  if ((corrections !== null) !== (config.perceptron > 0 && !config.nltkCompatible)) throw new ModelFormatError("parameters.corrections", "present exactly when config.perceptron is above 0");
+  const perceptronOn = config.perceptron > 0 && !config.nltkCompatible;
+  if ((corrections !== null) !== (perceptronOn && config.perceptronFeatures === "symbol")) throw new ModelFormatError("parameters.corrections", "present exactly when config.perceptron is above 0 with symbol features");
+  let features: FeatureWeights | null = null;
+  if (version >= 6 && p.features !== undefined && p.features !== null) {
+    const fj = object(p.features, "parameters.features");
+    const names = strings(fj.names, "parameters.features.names");
+    try {
+      features = createFeatureWeights(names, fromSparse(fj.weights, names.length * K, "parameters.features.weights"), K);
+    } catch (error) {
+      if (error instanceof ModelFormatError) throw error;
+      throw new ModelFormatError("parameters.features", (error as Error).message);
+    }
+  }
+  if ((features !== null) !== (perceptronOn && config.perceptronFeatures === "word-type")) throw new ModelFormatError("parameters.features", "present exactly when config.perceptron is above 0 with word-type features");
   if ((clusters !== null) !== (config.clusters > 0)) throw new ModelFormatError("parameters.clusters", "present exactly when config.clusters is above 0");
   const summary = object(root.summary, "summary") as unknown as DataSummary;
   let calibration: PlattCalibration | null = null;
@@ -290,7 +313,7 @@ export function loadModel(json: unknown): TaggerModel {
     if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
     calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b"), c: version >= 4 ? finite(c.c, "calibration.c") : 0 };
   }
-  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters, corrections });
+  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters, corrections, features });
 }
 
 /** Suffix-model statistics stored as {maxLength, theta, nodes} (the suffix table and the cluster prefixes). */

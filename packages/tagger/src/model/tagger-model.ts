@@ -9,6 +9,7 @@ import type { TrainingConfig } from "../estimation/training-config";
 import type { PlattCalibration } from "../estimation/platt";
 import { symbolCount, type Vocabulary } from "../estimation/vocabulary";
 import type { ClusterEmissions } from "../estimation/cluster-emissions";
+import type { FeatureWeights } from "../estimation/word-type-features";
 
 /** What the model was trained on (stored with it). */
 export type DataSummary = {
@@ -48,6 +49,8 @@ export type TaggerModel = {
   readonly clusters: ClusterEmissions | null;
   /** S×K perceptron weights added to the emission scores (config.perceptron > 0), else null. */
   readonly corrections: Float64Array | null;
+  /** Perceptron weights of the word-type features (config.perceptronFeatures word-type), else null. */
+  readonly features: FeatureWeights | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -82,6 +85,7 @@ export function assembleModel(parts: {
   calibration?: PlattCalibration | null;
   clusters?: ClusterEmissions | null;
   corrections?: Float64Array | null;
+  features?: FeatureWeights | null;
 }): TaggerModel {
   const { config, tags, vocabulary, statistics } = parts;
   if (statistics.states !== tags.length) throw new RangeError(`statistics have K=${statistics.states} states for ${tags.length} tags`);
@@ -101,5 +105,5 @@ export function assembleModel(parts: {
   });
   const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
   const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
-  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, corrections: parts.corrections ?? null, parameters, constraints, nltk, segmentStarts };
+  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, corrections: parts.corrections ?? null, features: parts.features ?? null, parameters, constraints, nltk, segmentStarts };
 }

@@ -15,7 +15,7 @@ import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
 import { applyPlatt, fitPlatt, type PlattCalibration } from "../estimation/platt";
 import { planFolds } from "../evaluation/folds";
-import { trainEmissionCorrections } from "../estimation/perceptron";
+import { trainEmissionCorrections, trainWordTypeWeights } from "../estimation/perceptron";
 
 /** Options of {@link trainTagger} that are not part of the model's configuration. */
 export type TrainOptions = {
@@ -55,11 +55,13 @@ export function trainTagger(
     clusters: data.clusters,
   };
   const counted = assembleModel(parts);
+  const countsOf = (others: readonly ColumnDocument[]) => trainTagger(others, { ...resolved, perceptron: 0, calibration: "none", semi: "none" }).model;
   const model =
-    resolved.perceptron > 0 && !resolved.nltkCompatible ? assembleModel({
-          ...parts,
-          corrections: trainEmissionCorrections(counted, documents, resolved.perceptron, (others) => trainTagger(others, { ...resolved, perceptron: 0, calibration: "none", semi: "none" }).model),
-        }) : counted;
+    resolved.perceptron === 0 || resolved.nltkCompatible
+      ? counted
+      : resolved.perceptronFeatures === "word-type"
+        ? assembleModel({ ...parts, features: trainWordTypeWeights(counted, documents, resolved.perceptron, countsOf) })
+        : assembleModel({ ...parts, corrections: trainEmissionCorrections(counted, documents, resolved.perceptron, countsOf) });
   const unlabelled = options.unlabelled ?? [];
   if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };
   return refineWithUnlabelled(model, data.statistics, unlabelled, {
