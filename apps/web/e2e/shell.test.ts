@@ -10,8 +10,9 @@ describe("the built app in Chromium", () => {
     page.on("pageerror", (e) => errors.push(e.message));
     await page.goto("/");
     await page.waitForURL(/\/sign-in$/);
-    await expect(page.getByRole("heading", { name: "Sign in" }).isVisible()).resolves.toBe(true);
-    await expect(page.getByText("Tagloom").first().isVisible()).resolves.toBe(true);
+    // isVisible() does not wait: the URL can change a moment before the screen paints.
+    await page.getByRole("heading", { name: "Sign in" }).waitFor();
+    await page.getByText("Tagloom").first().waitFor();
     const fontOk = await page.evaluate(async () => {
       await document.fonts.ready;
       return document.fonts.check('16px "Inter Variable"');
@@ -26,6 +27,6 @@ describe("the built app in Chromium", () => {
   it("shows a not-found page for an unknown address", async () => {
     const { page } = await session.newPage();
     await page.goto("/no/such/page");
-    await expect(page.getByRole("heading", { name: "Nothing here" }).isVisible()).resolves.toBe(true);
+    await page.getByRole("heading", { name: "Nothing here" }).waitFor();
   });
 });
