@@ -6,6 +6,7 @@ import { HttpResponse, http } from "msw";
 import { describe, expect, it } from "vitest";
 import { BuySeatsForm } from "@/features/billing/components/buy-seats-form";
 import { ChangeSeatsForm } from "@/features/billing/components/change-seats-form";
+import { saveAssignment } from "@/features/workspace/api/save-assignment";
 import { api } from "@/lib/api-client";
 import { server } from "@/testing/server";
 import { AppProvider } from "./provider";
@@ -101,5 +102,23 @@ describe("ApiErrorToasts", () => {
     await userEvent.click(screen.getByRole("button", { name: "Do it" }));
     await settle();
     expect(toastRegion()).toBeEmptyDOMElement();
+  });
+
+  it("does not toast an autosave fault, which the save status line shows, but still toasts other requests' faults", async () => {
+    const path = `/api/orgs/${ORG}/corpora/c1/assignments/a1`;
+    server.use(
+      http.put(path, () => HttpResponse.json({ error: { code: "unavailable", message: "The database is restarting.", details: null } }, { status: 503 })),
+      http.post("/api/things", () => HttpResponse.json({ error: { code: "unavailable", message: "The service is down for a moment.", details: null } }, { status: 503 })),
+    );
+    render(
+      <AppProvider>
+        <UnmarkedAction />
+      </AppProvider>,
+    );
+    await expect(saveAssignment(ORG, "c1", "a1", { version: 1, spans: [] })).rejects.toMatchObject({ status: 503, shownByCaller: true });
+    await settle();
+    expect(toastRegion()).toBeEmptyDOMElement();
+    await userEvent.click(screen.getByRole("button", { name: "Do it" }));
+    await waitFor(() => expect(within(toastRegion()).getByRole("alert")).toHaveTextContent("The service is down for a moment."));
   });
 });

@@ -13,7 +13,7 @@ export function ApiErrorToasts() {
   useEffect(
     () =>
       onApiError((err) => {
-        if (!(err.status === 0 || err.status >= 500 || err.status === 429)) return;
+        if (!(err.status === 0 || err.status >= 500 || err.status === 429) || err.shownByCaller) return;
         // The client reports the error before the failing request's promise chain reaches the
         // mutation cache; that chain runs on microtasks, so it has finished by the next task.
         setTimeout(() => {

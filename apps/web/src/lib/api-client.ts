@@ -5,6 +5,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly details: unknown = null,
+    /** The caller shows this failure on its own screen (RequestOptions.shownByCaller): no global toast. */
+    readonly shownByCaller = false,
   ) {
     super(message);
     this.name = "ApiError";
@@ -18,7 +20,14 @@ export class ApiError extends Error {
 }
 
 type Query = Record<string, string | number | boolean | undefined | null>;
-type RequestOptions = { query?: Query; body?: unknown; signal?: AbortSignal; headers?: Record<string, string> };
+type RequestOptions = {
+  query?: Query;
+  body?: unknown;
+  signal?: AbortSignal;
+  headers?: Record<string, string>;
+  /** The caller shows network and server faults itself (e.g. the autosave's status line), so the global toast skips them; 401 handling still runs. */
+  shownByCaller?: boolean;
+};
 
 const listeners = new Set<(err: ApiError) => void>();
 /** Subscribes to every error answer (the app shows toasts and handles 401 there). */
@@ -51,7 +60,7 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
     });
   } catch (cause) {
     if (cause instanceof DOMException && cause.name === "AbortError") throw cause;
-    const err = new ApiError(0, "network", "Cannot reach the server. Check your connection and try again.");
+    const err = new ApiError(0, "network", "Cannot reach the server. Check your connection and try again.", null, opts.shownByCaller === true);
     listeners.forEach((l) => l(err));
     throw err;
   }
@@ -65,7 +74,7 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
   }
   if (!res.ok) {
     const e = (body as { error?: { code?: string; message?: string; details?: unknown } } | null)?.error;
-    const err = new ApiError(res.status, e?.code ?? "http_error", e?.message ?? `The server answered ${res.status}.`, e?.details ?? null);
+    const err = new ApiError(res.status, e?.code ?? "http_error", e?.message ?? `The server answered ${res.status}.`, e?.details ?? null, opts.shownByCaller === true);
     listeners.forEach((l) => l(err));
     throw err;
   }
