@@ -8,23 +8,12 @@ import { BuySeatsForm } from "@/features/billing/components/buy-seats-form";
 import { ChangeSeatsForm } from "@/features/billing/components/change-seats-form";
 import { saveAssignment } from "@/features/workspace/api/save-assignment";
 import { api } from "@/lib/api-client";
+import { freeBillingState } from "@/testing/billing-fixtures";
 import { server } from "@/testing/server";
 import { AppProvider } from "./provider";
 
 const ORG = "33333333-3333-4333-8333-333333333333";
-const free: BillingState = {
-  plan: "free",
-  freeSeats: 5,
-  seatLimit: 5,
-  seatsUsed: 2,
-  members: 2,
-  pendingInvitations: 0,
-  subscription: null,
-  nextInvoiceAt: null,
-  paymentFailed: false,
-  checkoutPending: false,
-  invoices: [],
-};
+const free: BillingState = freeBillingState;
 const OUTAGE = "The payments service cannot be reached right now. Nothing was changed; try again in a minute.";
 
 const toastRegion = () => screen.getByTestId("toast-region");

@@ -3,24 +3,13 @@ import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { HttpResponse, http } from "msw";
 import { describe, expect, it } from "vitest";
+import { freeBillingState } from "@/testing/billing-fixtures";
 import { server } from "@/testing/server";
 import { renderWithProviders } from "@/testing/test-utils";
 import { BuySeatsForm } from "./buy-seats-form";
 
 const ORG = "22222222-2222-4222-8222-222222222222";
-const state: BillingState = {
-  plan: "free",
-  freeSeats: 5,
-  seatLimit: 5,
-  seatsUsed: 2,
-  members: 2,
-  pendingInvitations: 0,
-  subscription: null,
-  nextInvoiceAt: null,
-  paymentFailed: false,
-  checkoutPending: false,
-  invoices: [],
-};
+const state: BillingState = freeBillingState;
 
 // The answers are the API's own (apps/api/src/billing: PaymentsUnavailableError and the
 // too_few_seats conflict of startCheckout).
