@@ -72,6 +72,11 @@ describe("demo data", () => {
     expect(states.filter((s) => s.state === "accepted")).toHaveLength(8);
     expect(states.filter((s) => s.state === "submitted")).toHaveLength(12);
     expect(states.filter((s) => s.state === "in_progress")).toHaveLength(8);
+    // Each of the six documents waiting for review shows the manager at least one disagreement.
+    const waiting = await db("assignments").where({ organization_id: orgId, state: "submitted" }).select("document_id", "spans");
+    const byDocument = new Map<string, string[]>();
+    for (const a of waiting) byDocument.set(a.document_id, [...(byDocument.get(a.document_id) ?? []), JSON.stringify(a.spans)]);
+    expect([...byDocument.values()].map((versions) => versions.length === 2 && versions[0] !== versions[1])).toEqual([true, true, true, true, true, true]);
 
     // Seats bought through checkout on the payments fake, its webhooks received by the API.
     const billing = await getBillingState(orgId);

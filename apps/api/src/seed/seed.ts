@@ -17,7 +17,7 @@ import type { ReceivedFile } from "@/uploads/upload-storage";
 import { receiveUpload } from "@/uploads/uploads.service";
 import { simulateAnnotator } from "./demo-annotators";
 import { seedBilling } from "./demo-billing";
-import { buildDemoDocuments, demoEntityTypes, type DemoDocument } from "./demo-corpus";
+import { buildDemoDocuments, demoEntityTypes, type DemoDocument, type DemoSpan } from "./demo-corpus";
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PENDING_INVITEE, demoUsers } from "./demo-data";
 import { buildDemoDocx, buildDemoPdf } from "./demo-files";
 import { seedTaggers } from "./demo-taggers";
@@ -122,6 +122,10 @@ async function assignmentsOf(ctx: DemoContext, batchId: string): Promise<{ id: s
     .select({ id: "id", documentId: "document_id", annotatorId: "annotator_id" });
 }
 
+function sameSpans(a: readonly DemoSpan[], b: readonly DemoSpan[]): boolean {
+  return a.length === b.length && a.every((s, i) => s.start === b[i]!.start && s.end === b[i]!.end && s.type === b[i]!.type);
+}
+
 /**
  * Two annotators marked the same ten documents and submitted: four have been settled into gold,
  * six wait for the manager with the annotators' disagreements.
@@ -141,13 +145,23 @@ async function seedReviewBatch(ctx: DemoContext): Promise<void> {
     people.manager!,
   );
   const rng = createRng(7);
-  for (const a of await assignmentsOf(ctx, batch.id)) {
-    const { doc } = picked.find((p) => p.id === a.documentId)!;
-    const who = a.annotatorId === people.annotator1!.userId ? people.annotator1! : people.annotator2!;
-    const spans = simulateAnnotator(doc.text, doc.spans, who === people.annotator1 ? "careful" : "hasty", rng);
-    const member = { organizationId: ctx.organizationId, userId: who.userId, role: "annotator" as const };
-    const saved = await saveAssignment(member, ctx.corpusId, a.id, { version: 0, spans: spans.map((s) => ({ ...s, origin: "human" as const })), dismissedSuggestions: [] });
-    await submitAssignment(member, ctx.corpusId, a.id, saved.version, who);
+  const assignments = await assignmentsOf(ctx, batch.id);
+  // In the picked documents' order, the first annotator first: document ids are random, so
+  // their order would hand the simulated annotators' random draws to different documents each run.
+  for (const [index, p] of picked.entries()) {
+    const marked = [people.annotator1!, people.annotator2!].map((who) => {
+      const a = assignments.find((x) => x.documentId === p.id && x.annotatorId === who.userId)!;
+      return { a, who, spans: simulateAnnotator(p.doc.text, p.doc.spans, who === people.annotator1 ? "careful" : "hasty", rng) };
+    });
+    // Every document left for review (all but the four settled below) shows at least one
+    // disagreement: where the two happened to agree, the hasty one missed the last span.
+    const [careful, hasty] = marked as [(typeof marked)[number], (typeof marked)[number]];
+    if (index >= 4 && hasty.spans.length > 0 && sameSpans(careful.spans, hasty.spans)) hasty.spans = hasty.spans.slice(0, -1);
+    for (const { a, who, spans } of marked) {
+      const member = { organizationId: ctx.organizationId, userId: who.userId, role: "annotator" as const };
+      const saved = await saveAssignment(member, ctx.corpusId, a.id, { version: 0, spans: spans.map((s) => ({ ...s, origin: "human" as const })), dismissedSuggestions: [] });
+      await submitAssignment(member, ctx.corpusId, a.id, saved.version, who);
+    }
   }
   for (const p of picked.slice(0, 4)) {
     await settleDocument(ctx.organizationId, ctx.corpusId, batch.id, p.id, p.doc.spans, people.manager!);
