@@ -43,6 +43,8 @@ export type JourneyOptions = {
   screenshotFailuresOnly?: boolean;
   /** Makes the e-mail addresses and names unique on a shared product. */
   stamp: string;
+  /** What the product's processes printed last, added to a failed step's message. */
+  logTail?: () => string;
 };
 
 class JourneyError extends Error {}
@@ -132,7 +134,7 @@ export class Journey {
     } catch (err) {
       this.failedStep = step.name;
       await this.screenshot(`${step.name} (failed)`, true).catch(() => undefined);
-      throw err;
+      throw await this.explain(err);
     } finally {
       clearTimeout(timer);
     }
@@ -157,6 +159,16 @@ export class Journey {
       this.failedStep = step.name;
       throw new JourneyError(`problems in the browser during "${step.name}":\n${fresh.join("\n")}`);
     }
+  }
+
+  /** The failure with what the page showed and what the product printed last, so a run elsewhere (CI) tells why. */
+  private async explain(err: unknown): Promise<unknown> {
+    if (!(err instanceof Error)) return err;
+    const page = this.lastPage;
+    const shown = page && !page.isClosed() ? await page.locator("main").innerText({ timeout: 2000 }).catch(() => "(no main region)") : "(no page)";
+    const printed = this.options.logTail?.() ?? "";
+    err.message += `\n--- the page showed (${page?.url() ?? "no page"}):\n${shown.slice(0, 2000)}${printed ? `\n--- the product printed last:\n${printed}` : ""}`;
+    return err;
   }
 
   /** Marks the admin's first sign-in: the start of "sign-in to first suggestion". */

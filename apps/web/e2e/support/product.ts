@@ -19,6 +19,8 @@ export type Product = {
   stop: () => Promise<void>;
   /** Stops the payments fake alone (the payments service is down; the rest keeps running). */
   stopPayments: () => Promise<void>;
+  /** The last lines the API and the worker printed (warnings and errors; the worker's jobs too), for a failing test's message. */
+  logTail: (chars?: number) => string;
 };
 
 function freePort(): Promise<number> {
@@ -45,6 +47,17 @@ async function waitForHealth(url: string, child: ChildProcess, log: () => string
     await new Promise((r) => setTimeout(r, 200));
   }
   throw new Error(`the API did not become healthy within ${timeoutMs} ms:\n${log()}`);
+}
+
+/** Waits for the worker's "worker started" line: its queues are polled from then on. */
+async function waitForWorker(child: ChildProcess, log: () => string, timeoutMs = 60_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null || child.signalCode !== null) throw new Error(`the worker exited (${child.exitCode ?? child.signalCode}):\n${log()}`);
+    if (log().includes('"worker started"')) return;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`the worker did not start within ${timeoutMs} ms:\n${log()}`);
 }
 
 /** Runs a command to its end without blocking this process's event loop. */
@@ -115,16 +128,20 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
     const migrate = spawnSync(tsx, ["src/db/migrate-cli.ts", "latest"], { cwd: apiDir, env, encoding: "utf8" });
     if (migrate.status !== 0) throw new Error(`migrations failed: ${migrate.stderr}${migrate.stdout}`);
     let output = "";
-    const spawnApp = (entry: string) => {
-      const child = spawn(tsx, [entry], { cwd: apiDir, env, stdio: ["ignore", "pipe", "pipe"] });
-      child.stdout?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-20_000)));
-      child.stderr?.on("data", (d: Buffer) => (output = (output + d.toString()).slice(-20_000)));
+    const spawnApp = (entry: string, name: string, extraEnv: NodeJS.ProcessEnv = {}) => {
+      const child = spawn(tsx, [entry], { cwd: apiDir, env: { ...env, ...extraEnv }, stdio: ["ignore", "pipe", "pipe"] });
+      const keep = (d: Buffer) => (output = (output + d.toString()).slice(-20_000));
+      child.stdout?.on("data", keep);
+      child.stderr?.on("data", keep);
+      child.on("exit", (code, signal) => (output = `${output}\n[the ${name} exited: ${signal ?? code}]\n`.slice(-20_000)));
       children.push(child);
       return child;
     };
-    const api = spawnApp("src/server.ts");
-    spawnApp("src/worker.ts");
+    const api = spawnApp("src/server.ts", "API");
+    // The worker logs its jobs (info), so a failing browser test can show what the worker did.
+    const worker = spawnApp("src/worker.ts", "worker", { LOG_LEVEL: "info" });
     await waitForHealth(baseUrl, api, () => output);
+    await waitForWorker(worker, () => output);
     // The demo loads beside the running product, as in npm start: its seats are paid on the
     // payments fake (webhooks to the API) and its taggers are trained by the worker.
     let demoToken: string | null = null;
@@ -150,6 +167,7 @@ export async function startProduct(options: { demo?: boolean } = {}): Promise<Pr
         started.pg.stop();
       },
       stopPayments: () => started.payments.stop(),
+      logTail: (chars = 6000) => output.slice(-chars),
     };
   } catch (err) {
     await Promise.all(children.map(stopChild));
