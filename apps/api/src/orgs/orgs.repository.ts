@@ -1,4 +1,5 @@
 import { db as defaultDb } from "@/db/knex";
+import { retryOnConflict } from "@/db/retry";
 import type { Db } from "@/db/types";
 
 export type Organization = { id: string; name: string; createdAt: Date };
@@ -18,6 +19,12 @@ export async function renameOrganization(id: string, name: string, db: Db = defa
 }
 
 /** Deletes the organization; every tenant table references it with ON DELETE CASCADE. */
+/**
+ * Deletes the organization and, by ON DELETE CASCADE, all of its data. Jobs may be writing its
+ * rows meanwhile (mail, suggestions), which can deadlock with the cascade: outside a transaction
+ * the delete is then tried again.
+ */
 export async function deleteOrganization(id: string, db: Db = defaultDb): Promise<void> {
-  await db("organizations").where({ id }).delete();
+  const run = () => db("organizations").where({ id }).delete();
+  await (db.isTransaction ? run() : retryOnConflict(run));
 }

@@ -160,12 +160,23 @@ export type ClaimedFile = { id: string; filename: string; format: UploadFormat; 
  * retried job after its work was committed) are left alone and not returned.
  */
 export async function claimFiles(organizationId: string, fileIds: string[], db: Db = defaultDb): Promise<ClaimedFile[]> {
-  const rows = await db("upload_files")
-    .where("organization_id", organizationId)
-    .whereRaw("id = ANY(?::uuid[])", [fileIds])
-    .whereIn("state", ["queued", "processing"])
-    .update({ state: "processing", started_at: db.fn.now() })
-    .returning(["id", "filename", "format", "size_bytes"]);
+  if (!fileIds.length) return [];
+  // The rows are locked in id order, as lockUnfinishedFiles locks them: a plain UPDATE locks them
+  // in scan order and deadlocks with a duplicate run of the job that is storing the same files.
+  const { rows } = await db.raw(
+    `WITH mine AS (
+       SELECT id FROM upload_files
+       WHERE organization_id = ? AND id = ANY(?::uuid[]) AND state IN ('queued', 'processing')
+       ORDER BY id FOR UPDATE
+     )
+     , claimed AS (
+       UPDATE upload_files f SET state = 'processing', started_at = now()
+       FROM mine WHERE f.id = mine.id
+       RETURNING f.id, f.filename, f.format, f.size_bytes, f.file_index
+     )
+     SELECT id, filename, format, size_bytes FROM claimed ORDER BY file_index`,
+    [organizationId, fileIds],
+  );
   return rows.map((r: { id: string; filename: string; format: UploadFormat; size_bytes: number }) => ({ id: r.id, filename: r.filename, format: r.format, sizeBytes: r.size_bytes }));
 }
 
