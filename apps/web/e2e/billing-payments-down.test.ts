@@ -100,6 +100,10 @@ it("Continue to payment with the payments service down shows a clear error and c
   }
   await page.evaluate(() => window.scrollTo(0, 0));
   await page.screenshot({ path: path.join(shots, "toast-390.png") });
+  // A tap opens it in full (a longer message is cut to two lines on phones) and keeps it.
+  await toast.getByRole("button").click();
+  await toast.getByRole("button", { expanded: true }).waitFor();
+  await page.screenshot({ path: path.join(shots, "toast-390-open.png") });
   await page.setViewportSize({ width: 1440, height: 900 });
   await page.screenshot({ path: path.join(shots, "toast-1440.png") });
 
