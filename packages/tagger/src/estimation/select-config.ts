@@ -86,7 +86,7 @@ export function selectConfiguration(
   if (given.length > 0) return keep(`set on the command line: ${given.join(", ")}`);
   if (base.nltkCompatible === true) return keep("NLTK-compatible model");
   if (base.semi !== undefined && base.semi !== "none") return keep("unlabelled learning needs the first-order model");
-  if (base.perceptron !== undefined && base.perceptron > 0 && base.perceptronFeatures !== "word-type") return keep("the perceptron over symbols needs the first-order model");
+  if (base.perceptron !== undefined && base.perceptron > 0 && (base.perceptronFeatures === undefined || base.perceptronFeatures === "symbol")) return keep("the perceptron over symbols needs the first-order model");
   const sentences = documents.reduce((n, d) => n + d.sentences.filter((s) => s.words.length > 0).length, 0);
   if (sentences < 2 * k) return keep(`too few sentences (${sentences}) for ${k}-fold selection`);
   const { folds } = planFolds(documents, k);
