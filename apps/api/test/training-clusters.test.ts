@@ -63,7 +63,7 @@ describe("a run with word clusters", () => {
 
     const model = await storedModel(run.taggerId!);
     expect(model.schemaVersion).toBe(MODEL_SCHEMA_VERSION);
-    expect(model.schemaVersion).toBe(6);
+    expect(model.schemaVersion).toBe(7);
     expect(model.config.clusters).toBe(12);
     const clusters = model.parameters.clusters!;
     expect(clusters).not.toBeNull();

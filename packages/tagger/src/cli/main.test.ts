@@ -31,7 +31,7 @@ describe("tagger CLI", () => {
     const train = run(["train", "--train", "train.bio", "--out", "model.json", "--rare", "0"], { cwd: dir });
     expect(train.stderr).toBe("");
     expect(train.code).toBe(0);
-    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(6);
+    expect(JSON.parse(readFileSync(join(dir, "model.json"), "utf8")).schemaVersion).toBe(7);
     const tagged = run(["tag", "--model", "model.json", "--input", "test.bio"], { cwd: dir });
     expect(tagged.code).toBe(0);
     const lines = tagged.stdout.split("\n");
@@ -162,6 +162,14 @@ describe("tagger CLI", () => {
     const perceptron = run(["train", "--train", "train.bio", "--out", "perceptron.json", "--perceptron", "2"], { cwd: dir });
     expect(perceptron.code).toBe(0);
     expect(JSON.parse(readFileSync(join(dir, "perceptron.json"), "utf8")).parameters.corrections.length).toBeGreaterThan(0);
+    const neighbours = run(["train", "--train", "train.bio", "--out", "neighbours.json", "--perceptron", "2", "--perceptron-features", "neighbours"], { cwd: dir });
+    expect(neighbours.code).toBe(0);
+    const neighboursModel = JSON.parse(readFileSync(join(dir, "neighbours.json"), "utf8"));
+    expect(neighboursModel.config.perceptronFeatures).toBe("neighbours");
+    expect(neighboursModel.parameters.neighbourFeatures.names.length).toBeGreaterThan(0);
+    const taggedNeighbours = run(["tag", "--model", "neighbours.json", "--json"], { cwd: dir, input: "Nessa\nlives\nin\nTirranel\n" });
+    expect(taggedNeighbours.code).toBe(0);
+    expect(JSON.parse(taggedNeighbours.stdout.trim()).tokens).toEqual(["Nessa", "lives", "in", "Tirranel"]);
     const tagged = run(["tag", "--model", "clusters.json"], { cwd: dir, input: "Nessa\nlives\nin\nTirranel\n" });
     expect(tagged.code).toBe(0);
     expect(tagged.stdout.split("\n")).toHaveLength(6);
@@ -171,6 +179,7 @@ describe("tagger CLI", () => {
       [["--unlabelled", "unlabelled.txt"], /--unlabelled needs --semi em\|sample or --clusters N/],
       [["--clusters", "0", "--unlabelled", "unlabelled.txt"], /--unlabelled needs/],
       [["--perceptron", "many"], /--perceptron: expected an integer from 0 to 100, got "many"/],
+      [["--perceptron-features", "context"], /--perceptron-features: expected symbol, word-type, neighbours, got "context"/],
     ] as const) {
       const bad = run(["train", "--train", "train.bio", "--out", "bad-clusters.json", ...args], { cwd: dir });
       expect(bad.code, args.join(" ")).toBe(2);

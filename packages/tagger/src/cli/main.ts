@@ -51,9 +51,11 @@ training options:
                                  unknown and rare words (0 = off, the default)
   --perceptron N                 N passes of the averaged perceptron adding weights to the
                                  emission scores (0 = off, the default; order 1 only)
-  --perceptron-features symbol|word-type  what the perceptron's weights are on: the word's symbol
-                                 (default), or features of the word type (lower-cased form,
-                                 prefixes and suffixes, shape, word class, clusters; any order)
+  --perceptron-features symbol|word-type|neighbours  what the perceptron's weights are on: the
+                                 word's symbol (default), features of the word type (lower-cased
+                                 form, prefixes and suffixes, shape, word class, clusters; any
+                                 order), or those plus the neighbouring words (lower-cased w±1,
+                                 w±2, class and shape of w±1, sentence boundaries; any order)
   --calibration platt-length|platt|none  span confidences calibrated on 5-fold CV of the training data (default platt-length: Platt with ln span length)
   --nltk-compatible              NLTK's HMM (γ = --smoothing, default 0.1)
   --select cv|off                choose first-order or trigram by 3-fold CV of the training data
@@ -182,7 +184,7 @@ function trainingConfig(values: Values): Partial<TrainingConfig> {
   if (values.calibration !== undefined) config.calibration = choice("calibration", values.calibration, ["platt", "platt-length", "none"] as const);
   if (values.clusters !== undefined) config.clusters = number("clusters", values.clusters, (n) => Number.isInteger(n) && n >= 0 && n <= MAX_CLUSTERS, `an integer from 0 to ${MAX_CLUSTERS}`);
   if (values.perceptron !== undefined) config.perceptron = number("perceptron", values.perceptron, (n) => Number.isInteger(n) && n >= 0 && n <= 100, "an integer from 0 to 100");
-  if (values["perceptron-features"] !== undefined) config.perceptronFeatures = choice("perceptron-features", values["perceptron-features"], ["symbol", "word-type"] as const);
+  if (values["perceptron-features"] !== undefined) config.perceptronFeatures = choice("perceptron-features", values["perceptron-features"], ["symbol", "word-type", "neighbours"] as const);
   if (values["nltk-compatible"] === true) config.nltkCompatible = true;
   if (config.semi !== undefined && (values.unlabelled ?? []).length === 0) throw new UsageError("--semi needs --unlabelled FILE");
   if ((values.unlabelled ?? []).length > 0 && config.semi === undefined && !(config.clusters !== undefined && config.clusters > 0)) {

@@ -2,6 +2,7 @@ import type { TaggerModel } from "../model/tagger-model";
 import { clusterOf } from "./brown-clusters";
 import { addClusterLogRatio } from "./cluster-emissions";
 import { addFeatureWeights } from "./word-type-features";
+import { addNeighbourWeights } from "./neighbour-features";
 
 /**
  * What a model adds to the count-based emission row of one word (row[offset..offset+K)), after
@@ -28,4 +29,15 @@ export function addEmissionAdjustments(model: TaggerModel, word: string, firstIn
 export function emissionRowIsOwn(model: TaggerModel, word: string, symbol: number): boolean {
   if (model.features !== null) return true;
   return model.clusters !== null && symbol >= model.vocabulary.words.length && clusterOf(model.clusters.clusters, word) >= 0;
+}
+
+/**
+ * What a model adds per token of a sentence, after every token's word row (addEmissionAdjustments)
+ * is in place: the weights of the neighbouring words' features (neighbour-features.ts), which
+ * differ from token to token of one word type and so stay out of the per-word-type rows. `logRows`
+ * is the sentence's T×K log emission lattice; `expRows`, when given, its exp, kept in step.
+ * Nothing for a model without neighbour features.
+ */
+export function addTokenAdjustments(model: TaggerModel, words: readonly string[], logRows: Float64Array, expRows: Float64Array | null): void {
+  if (model.neighbourFeatures !== null) addNeighbourWeights(model.neighbourFeatures, words, logRows, expRows);
 }

@@ -27,6 +27,7 @@ import type { SecondOrderLattice } from "../kernels/second-order-lattice";
 import type { EmissionInput, HmmParams } from "../kernels/hmm-params";
 import { encodeWords, symbolOf } from "./vocabulary";
 import { createFeatureWeights, featureKey, wordTypeFeatures, type FeatureWeights } from "./word-type-features";
+import { neighbourFeatures } from "./neighbour-features";
 
 /**
  * Step of each perceptron update, in log-score units. Under 5-fold CV on wikigold train+dev no
@@ -46,6 +47,15 @@ const JACKKNIFE_FOLDS = 5;
  * (bench/features.ts has the table on the informal proxies too).
  */
 export const WORD_TYPE_RATE = 0.005;
+
+/**
+ * Step of each update with the word-type and neighbour features (neighbour-features.ts), about
+ * two dozen features per token: the best 5-fold CV F1 of steps 0.002, 0.005, 0.02, 0.05, 0.1, 0.2
+ * and 0.5 at 1–3 passes on wikigold train+dev and on its lower-cased and noisy proxies was at 0.2
+ * (3 passes on the proxies, 2 and 3 passes within 0.0001 on wikigold; bench/features.ts
+ * neighbours, the table in the README).
+ */
+export const NEIGHBOUR_RATE = 0.2;
 
 /** Features of each token of a sentence: token t's feature ids are ids[offsets[t]..offsets[t+1]). */
 type TokenFeatures = { readonly offsets: Int32Array; readonly ids: Int32Array };
@@ -83,6 +93,8 @@ function averagedPerceptron(
   featuresOf: (words: readonly string[], scorer: TaggerModel, sentence: number) => TokenFeatures,
   rate: number,
   onStep?: (weights: Float64Array) => void,
+  /** Called with the averaged weights after each pass but the last (number of passes done). */
+  onPass?: (averaged: Float64Array, passes: number) => void,
 ): Float64Array {
   const K = model.tags.length;
   const secondOrder = model.config.order === 2;
@@ -162,7 +174,13 @@ function averagedPerceptron(
       c++;
       onStep?.(weights);
     }
+    if (onPass !== undefined && epoch < epochs - 1) onPass(averageOf(weights, stamped, c), epoch + 1);
   }
+  return averageOf(weights, stamped, c);
+}
+
+/** The lazy average after c − 1 sentence visits: w − Σ_u c_u·δ_u / c (see averagedPerceptron). */
+function averageOf(weights: Float64Array, stamped: Float64Array, c: number): Float64Array {
   const averaged = new Float64Array(weights.length);
   for (let x = 0; x < weights.length; x++) averaged[x] = weights[x] - stamped[x] / c;
   return averaged;
@@ -209,26 +227,84 @@ export function trainWordTypeWeights(
   rate = WORD_TYPE_RATE,
   onStep?: (weights: Float64Array, names: readonly string[]) => void,
 ): FeatureWeights {
+  return trainFeatureTables(model, documents, epochs, trainCounts, { rate, onStep }, false).wordType;
+}
+
+/** Options of {@link trainNeighbourWeights}. */
+export type NeighbourTrainingOptions = {
+  /** Step of each update (default NEIGHBOUR_RATE). */
+  readonly rate?: number;
+  /** Called with the weights of every interned feature after each sentence, with the interned names. */
+  readonly onStep?: (weights: Float64Array, names: readonly string[]) => void;
+  /**
+   * Called after each pass but the last with the tables the training would return had it
+   * stopped there (the same numbers: the averages depend only on the passes before), so one run
+   * of N passes also yields the 1, …, N − 1 pass results.
+   */
+  readonly onPass?: (tables: { wordType: FeatureWeights; neighbours: FeatureWeights }, passes: number) => void;
+};
+
+/**
+ * The word-type features plus the features of the neighbouring words (neighbour-features.ts),
+ * trained together as in {@link trainWordTypeWeights}: one perceptron whose token scores add both
+ * kinds' weights. Returned as two tables: the word-type weights (cached per word type on the
+ * tagging path) and the neighbour weights (added per token).
+ */
+export function trainNeighbourWeights(
+  model: TaggerModel,
+  documents: readonly ColumnDocument[],
+  epochs: number,
+  trainCounts: (documents: readonly ColumnDocument[]) => TaggerModel,
+  options: NeighbourTrainingOptions = {},
+): { wordType: FeatureWeights; neighbours: FeatureWeights } {
+  const onPass = options.onPass;
+  const tables = trainFeatureTables(
+    model,
+    documents,
+    epochs,
+    trainCounts,
+    { rate: options.rate ?? NEIGHBOUR_RATE, onStep: options.onStep, onPass: onPass && ((t, passes) => onPass({ wordType: t.wordType, neighbours: t.neighbours! }, passes)) },
+    true,
+  );
+  return { wordType: tables.wordType, neighbours: tables.neighbours! };
+}
+
+type FeatureTables = { wordType: FeatureWeights; neighbours: FeatureWeights | null };
+
+function trainFeatureTables(
+  model: TaggerModel,
+  documents: readonly ColumnDocument[],
+  epochs: number,
+  trainCounts: (documents: readonly ColumnDocument[]) => TaggerModel,
+  options: { rate: number; onStep?: (weights: Float64Array, names: readonly string[]) => void; onPass?: (tables: FeatureTables, passes: number) => void },
+  withNeighbours: boolean,
+): FeatureTables {
+  const { rate, onStep, onPass } = options;
   const K = model.tags.length;
   const clusters = model.clusters?.clusters ?? null;
   const index = new Map<string, number>();
   const names: string[] = [];
+  // Word-type names start "known:" or "class:" (featureKey), neighbour names "w", "class±1=" or
+  // "shape±1=", so one index holds both kinds without a collision.
+  const isNeighbour: boolean[] = [];
+  const intern = (name: string, neighbour: boolean): number => {
+    let f = index.get(name);
+    if (f === undefined) {
+      f = names.length;
+      index.set(name, f);
+      names.push(name);
+      isNeighbour.push(neighbour);
+    }
+    return f;
+  };
   const featuresOf = (words: readonly string[], scorer: TaggerModel): TokenFeatures => {
     const offsets = new Int32Array(words.length + 1);
     const ids: number[] = [];
     const V = scorer.vocabulary.words.length;
     words.forEach((word, t) => {
       const known = symbolOf(scorer.vocabulary, word, t === 0) < V;
-      for (const feature of wordTypeFeatures(word, t === 0, clusters)) {
-        const name = featureKey(feature, known);
-        let f = index.get(name);
-        if (f === undefined) {
-          f = names.length;
-          index.set(name, f);
-          names.push(name);
-        }
-        ids.push(f);
-      }
+      for (const feature of wordTypeFeatures(word, t === 0, clusters)) ids.push(intern(featureKey(feature, known), false));
+      if (withNeighbours) for (const feature of neighbourFeatures(words, t)) ids.push(intern(feature, true));
       offsets[t + 1] = ids.length;
     });
     return { offsets, ids: Int32Array.from(ids) };
@@ -243,17 +319,26 @@ export function trainWordTypeWeights(
     featuresOf,
     rate,
     onStep && ((w) => onStep(w, names)),
+    onPass && ((a, passes) => onPass(tablesOf(a), passes)),
   );
-  const kept: number[] = [];
-  for (let f = 0; f < names.length; f++) {
-    for (let k = 0; k < K; k++) {
-      if (averaged[f * K + k] !== 0) {
-        kept.push(f);
-        break;
+  return tablesOf(averaged);
+
+  function tablesOf(averaged: Float64Array): FeatureTables {
+    return { wordType: tableOf(averaged, false), neighbours: withNeighbours ? tableOf(averaged, true) : null };
+  }
+  function tableOf(averaged: Float64Array, neighbour: boolean): FeatureWeights {
+    const kept: number[] = [];
+    for (let f = 0; f < names.length; f++) {
+      if (isNeighbour[f] !== neighbour) continue;
+      for (let k = 0; k < K; k++) {
+        if (averaged[f * K + k] !== 0) {
+          kept.push(f);
+          break;
+        }
       }
     }
+    const weights = new Float64Array(kept.length * K);
+    kept.forEach((f, g) => weights.set(averaged.subarray(f * K, f * K + K), g * K));
+    return createFeatureWeights(kept.map((f) => names[f]), weights, K);
   }
-  const weights = new Float64Array(kept.length * K);
-  kept.forEach((f, g) => weights.set(averaged.subarray(f * K, f * K + K), g * K));
-  return createFeatureWeights(kept.map((f) => names[f]), weights, K);
 }

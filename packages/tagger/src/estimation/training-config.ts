@@ -82,9 +82,11 @@ export type TrainingConfig = {
   /**
    * What the perceptron's weights are on: `symbol`, one weight per (symbol, tag), first-order
    * only; `word-type`, weights per (feature, tag) of the word-type features of
-   * word-type-features.ts (lower-cased form, affixes, shape, word class, flags, cluster prefixes).
+   * word-type-features.ts (lower-cased form, affixes, shape, word class, flags, cluster prefixes);
+   * `neighbours`, those plus features of the words around the token (neighbour-features.ts:
+   * lower-cased w±1 and w±2, class and shape of w±1, sentence boundaries).
    */
-  readonly perceptronFeatures: "symbol" | "word-type";
+  readonly perceptronFeatures: "symbol" | "word-type" | "neighbours";
   /** Reproduce NLTK's supervised HMM exactly (see nltk-compatible.ts); ignores the options above it names. */
   readonly nltkCompatible: boolean;
 };
@@ -167,7 +169,7 @@ export function checkTrainingConfig(config: TrainingConfig): void {
   if (config.calibration !== "platt" && config.calibration !== "platt-length" && config.calibration !== "none") throw new RangeError(`calibration must be platt, platt-length or none, got ${config.calibration}`);
   if (!Number.isInteger(config.clusters) || config.clusters < 0) throw new RangeError(`clusters must be an integer ≥ 0, got ${config.clusters}`);
   if (!Number.isInteger(config.perceptron) || config.perceptron < 0) throw new RangeError(`perceptron must be an integer ≥ 0, got ${config.perceptron}`);
-  if (config.perceptronFeatures !== "symbol" && config.perceptronFeatures !== "word-type") throw new RangeError(`perceptronFeatures must be symbol or word-type, got ${String(config.perceptronFeatures)}`);
+  if (!["symbol", "word-type", "neighbours"].includes(config.perceptronFeatures)) throw new RangeError(`perceptronFeatures must be symbol, word-type or neighbours, got ${String(config.perceptronFeatures)}`);
   if (config.perceptron > 0 && config.order !== 1 && config.perceptronFeatures === "symbol") throw new RangeError("perceptron needs order 1");
   if (!Number.isInteger(config.seed)) throw new RangeError(`seed must be an integer, got ${config.seed}`);
   checkPositionBuckets(config.positionBuckets);

@@ -8,7 +8,7 @@ import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixLogRatio } from "../estimation/suffix-model";
 import type { TaggerModel } from "./tagger-model";
 import { encodeWords, suffixGroupOf } from "../estimation/vocabulary";
-import { addEmissionAdjustments } from "../estimation/emission-adjustments";
+import { addEmissionAdjustments, addTokenAdjustments } from "../estimation/emission-adjustments";
 
 /**
  * Symbols and the T×K emission lattice of a sentence. A known word reads its row of the emission
@@ -37,6 +37,7 @@ export function buildEmissionLattice(model: TaggerModel, words: readonly string[
     }
     addEmissionAdjustments(model, words[t], t === 0, s, lattice, out);
   }
+  addTokenAdjustments(model, words, lattice, null);
   return { symbols, lattice };
 }
 

@@ -3,7 +3,7 @@ import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
 import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
-import { addEmissionAdjustments, emissionRowIsOwn } from "../estimation/emission-adjustments";
+import { addEmissionAdjustments, addTokenAdjustments, emissionRowIsOwn } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
 import { addNodeLogRatio, createSuffixTrie, suffixNode, type SuffixTrie } from "./suffix-trie";
@@ -575,6 +575,8 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
       emissions[to + k] = rows[from + K + k];
     }
   }
+  // Per-token additions (neighbour features) on top of the cached per-word-type rows.
+  addTokenAdjustments(model, words, logEmissions, emissions);
   const { parameters } = model;
   const contextTable = parameters.contextEmission;
   const segmentStarts = model.segmentStarts;

@@ -22,6 +22,7 @@ describe("serializeModel / loadModel", () => {
     ["word clusters", { clusters: 4 }],
     ["perceptron", { perceptron: 2 }],
     ["perceptron over word-type features", { perceptron: 2, perceptronFeatures: "word-type" as const }],
+    ["perceptron over word-type and neighbour features", { perceptron: 2, perceptronFeatures: "neighbours" as const }],
     ["NLTK-compatible", { nltkCompatible: true }],
   ])("round-trips through JSON text with identical predictions and likelihoods (%s)", (_name, config) => {
     const { model } = trainTagger(tinyDocuments, config);
@@ -58,7 +59,7 @@ describe("serializeModel / loadModel", () => {
 
   it("refuses unknown versions, other formats and damaged files with clear errors", () => {
     const json = serializeModel(trainTagger(tinyDocuments).model);
-    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3, 4, 5 and 6/);
+    expect(() => loadModel({ ...json, schemaVersion: 99 })).toThrow(/unsupported schema version 99; this version of @tagloom\/tagger reads versions 1, 2, 3, 4, 5, 6 and 7/);
     expect(() => loadModel({ ...json, format: "other" })).toThrow(/not a Tagloom tagger model/);
     expect(() => loadModel(null)).toThrow(/expected an object/);
     expect(() => loadModel({ ...json, tags: json.tags.slice(1) })).toThrow(/parameters.states/);
@@ -227,5 +228,42 @@ describe("schema version 6", () => {
     const short = JSON.parse(JSON.stringify(json));
     short.parameters.features.names.pop();
     expect(() => loadModel(short)).toThrow(/parameters.features.weights.length/);
+  });
+});
+
+describe("schema version 7", () => {
+  it("a version-6 file (word clusters and word-type feature weights, written by the version-6 writer) loads and tags identically", () => {
+    // model-v6.json: trained on the tiny corpus with --clusters 4 --perceptron 2
+    // --perceptron-features word-type (and the tiny unlabelled text) by the version-6 code, with
+    // the tags, chunk confidences and log-likelihoods it gave then (invented words only).
+    const fixture = JSON.parse(readFileSync(fileURLToPath(new URL("../testing/model-v6.json", import.meta.url)), "utf8")) as {
+      model: { schemaVersion: number; config: Record<string, unknown>; parameters: Record<string, unknown> };
+      sentences: string[][];
+      expected: { tags: string[]; chunks: { type: string; start: number; end: number; confidence: number }[]; logLikelihood: number }[];
+    };
+    expect(fixture.model.schemaVersion).toBe(6);
+    expect(fixture.model.config.perceptronFeatures).toBe("word-type");
+    expect(fixture.model.parameters.neighbourFeatures).toBeUndefined();
+    const model = loadModel(fixture.model);
+    expect(model.features).not.toBeNull();
+    expect(model.neighbourFeatures).toBeNull();
+    fixture.sentences.forEach((words, i) => expect(tagSentence(model, words)).toEqual(fixture.expected[i]));
+    const again = loadModel(JSON.parse(JSON.stringify(serializeModel(model))));
+    expect(serializeModel(again).schemaVersion).toBe(7);
+    fixture.sentences.forEach((words, i) => expect(tagSentence(again, words)).toEqual(fixture.expected[i]));
+  });
+
+  it("stores the neighbour feature weights beside the word-type ones and refuses them when they disagree with the config or the version", () => {
+    const json = serializeModel(trainTagger(tinyDocuments, { perceptron: 2, perceptronFeatures: "neighbours" }).model);
+    expect(json.parameters.features!.names.length).toBeGreaterThan(0);
+    expect(json.parameters.neighbourFeatures!.names.length).toBeGreaterThan(0);
+    expect(() => loadModel({ ...json, config: { ...json.config, perceptronFeatures: "word-type" } })).toThrow(/parameters.neighbourFeatures: present exactly when/);
+    expect(() => loadModel({ ...json, schemaVersion: 6 })).toThrow(/config: perceptronFeatures neighbours needs schema version 7, this file has 6/);
+    const wordType = serializeModel(trainTagger(tinyDocuments, { perceptron: 2, perceptronFeatures: "word-type" }).model);
+    expect(wordType.parameters.neighbourFeatures).toBeNull();
+    expect(() => loadModel({ ...wordType, config: { ...wordType.config, perceptronFeatures: "neighbours" } })).toThrow(/parameters.neighbourFeatures: present exactly when/);
+    const short = JSON.parse(JSON.stringify(json));
+    short.parameters.neighbourFeatures.names.pop();
+    expect(() => loadModel(short)).toThrow(/parameters.neighbourFeatures.weights.length/);
   });
 });

@@ -11,16 +11,17 @@ import { createFeatureWeights, type FeatureWeights } from "../estimation/word-ty
 
 /** Identifies a serialized tagger; `schemaVersion` changes whenever the file's meaning does. */
 export const MODEL_FORMAT = "tagloom-hmm";
-export const MODEL_SCHEMA_VERSION = 6;
+export const MODEL_SCHEMA_VERSION = 7;
 /**
  * Versions this release reads: version 1 had no calibration (raw chunk marginals); version 2
  * could not name the `informal` word classes (version 3); version 3's calibration had no span
  * length coefficient `c` (version 4; an older file reads with c = 0, i.e. as before); versions
  * 1–4 had no word clusters (version 5; an older file reads with clusters off, i.e. as before);
  * versions 1–5 had no word-type feature weights (version 6; an older file's perceptron, if any,
- * has symbol weights, and it reads and tags as before).
+ * has symbol weights, and it reads and tags as before); versions 1–6 had no neighbour-feature
+ * weights (version 7; an older file's perceptron has symbol or word-type weights only).
  */
-const READABLE_VERSIONS = [1, 2, 3, 4, 5, 6];
+const READABLE_VERSIONS = [1, 2, 3, 4, 5, 6, 7];
 
 /** A dense array stored by its non-zero entries. */
 export type SparseArray = { length: number; indices: number[]; values: number[] };
@@ -69,6 +70,11 @@ export type SerializedModel = {
      * in id order and their F×K weights, feature-major.
      */
     features?: { names: string[]; weights: SparseArray } | null;
+    /**
+     * Perceptron weights of the neighbouring words' features (version 7; absent = none), stored
+     * as `features`; with them `features` holds the word-type part of the same perceptron.
+     */
+    neighbourFeatures?: { names: string[]; weights: SparseArray } | null;
     /** Informational: values estimated from the counts (recomputed on load). */
     derived: { trigramLambdas: number[] | null };
   };
@@ -124,10 +130,15 @@ export function serializeModel(model: TaggerModel): SerializedModel {
       suffix: model.suffix === null ? null : { maxLength: model.suffix.maxLength, theta: model.suffix.theta, nodes: suffixNodesToJson(model.suffix) },
       clusters: model.clusters === null ? null : clustersToJson(model.clusters),
       corrections: model.corrections === null ? null : toSparse(model.corrections),
-      features: model.features === null ? null : { names: [...model.features.names], weights: toSparse(model.features.weights) },
+      features: model.features === null ? null : featuresToJson(model.features),
+      neighbourFeatures: model.neighbourFeatures === null ? null : featuresToJson(model.neighbourFeatures),
       derived: { trigramLambdas: model.parameters.trigram === null ? null : [...model.parameters.trigram.lambdas] },
     },
   };
+}
+
+function featuresToJson(table: FeatureWeights): { names: string[]; weights: SparseArray } {
+  return { names: [...table.names], weights: toSparse(table.weights) };
 }
 
 function clustersToJson(c: ClusterEmissions): NonNullable<SerializedModel["parameters"]["clusters"]> {
@@ -230,6 +241,7 @@ export function loadModel(json: unknown): TaggerModel {
     // Version 1 predates calibration and versions 1–4 clusters: such a model was trained without them.
     // Versions 1–5 predate word-type features: a perceptron there has symbol weights.
     const older = version < 5 ? { ...stored, clusters: 0, perceptron: 0 } : version < 6 ? { ...stored, perceptronFeatures: "symbol" as const } : stored;
+    if (version < 7 && older.perceptronFeatures === "neighbours") throw new RangeError(`perceptronFeatures neighbours needs schema version 7, this file has ${version}`);
     config = resolveTrainingConfig(version === 1 ? { ...older, calibration: "none" } : older);
   } catch (error) {
     throw new ModelFormatError("config", (error as Error).message);
@@ -293,18 +305,13 @@ export function loadModel(json: unknown): TaggerModel {
   const corrections = version >= 5 && p.corrections !== undefined && p.corrections !== null ? fromSparse(p.corrections, S * K, "parameters.corrections") : null;
   const perceptronOn = config.perceptron > 0 && !config.nltkCompatible;
   if ((corrections !== null) !== (perceptronOn && config.perceptronFeatures === "symbol")) throw new ModelFormatError("parameters.corrections", "present exactly when config.perceptron is above 0 with symbol features");
-  let features: FeatureWeights | null = null;
-  if (version >= 6 && p.features !== undefined && p.features !== null) {
-    const fj = object(p.features, "parameters.features");
-    const names = strings(fj.names, "parameters.features.names");
-    try {
-      features = createFeatureWeights(names, fromSparse(fj.weights, names.length * K, "parameters.features.weights"), K);
-    } catch (error) {
-      if (error instanceof ModelFormatError) throw error;
-      throw new ModelFormatError("parameters.features", (error as Error).message);
-    }
+  const features = version >= 6 ? readFeatureWeights(p.features, "parameters.features", K) : null;
+  const neighbourFeatures = version >= 7 ? readFeatureWeights(p.neighbourFeatures, "parameters.neighbourFeatures", K) : null;
+  const withWordType = perceptronOn && (config.perceptronFeatures === "word-type" || config.perceptronFeatures === "neighbours");
+  if ((features !== null) !== withWordType) throw new ModelFormatError("parameters.features", "present exactly when config.perceptron is above 0 with word-type or neighbour features");
+  if ((neighbourFeatures !== null) !== (perceptronOn && config.perceptronFeatures === "neighbours")) {
+    throw new ModelFormatError("parameters.neighbourFeatures", "present exactly when config.perceptron is above 0 with neighbour features");
   }
-  if ((features !== null) !== (perceptronOn && config.perceptronFeatures === "word-type")) throw new ModelFormatError("parameters.features", "present exactly when config.perceptron is above 0 with word-type features");
   if ((clusters !== null) !== (config.clusters > 0)) throw new ModelFormatError("parameters.clusters", "present exactly when config.clusters is above 0");
   const summary = object(root.summary, "summary") as unknown as DataSummary;
   let calibration: PlattCalibration | null = null;
@@ -313,7 +320,20 @@ export function loadModel(json: unknown): TaggerModel {
     if (c.method !== "platt") throw new ModelFormatError("calibration.method", `expected "platt", got ${JSON.stringify(c.method)}`);
     calibration = { method: "platt", a: finite(c.a, "calibration.a"), b: finite(c.b, "calibration.b"), c: version >= 4 ? finite(c.c, "calibration.c") : 0 };
   }
-  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters, corrections, features });
+  return assembleModel({ config, scheme, tags, vocabulary, statistics: stats, suffix, summary, calibration, clusters, corrections, features, neighbourFeatures });
+}
+
+/** A feature table stored as {names, weights} (F×K, feature-major), or null when absent. */
+function readFeatureWeights(value: unknown, at: string, K: number): FeatureWeights | null {
+  if (value === undefined || value === null) return null;
+  const fj = object(value, at);
+  const names = strings(fj.names, `${at}.names`);
+  try {
+    return createFeatureWeights(names, fromSparse(fj.weights, names.length * K, `${at}.weights`), K);
+  } catch (error) {
+    if (error instanceof ModelFormatError) throw error;
+    throw new ModelFormatError(at, (error as Error).message);
+  }
 }
 
 /** Suffix-model statistics stored as {maxLength, theta, nodes} (the suffix table and the cluster prefixes). */

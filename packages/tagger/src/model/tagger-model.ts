@@ -51,6 +51,8 @@ export type TaggerModel = {
   readonly corrections: Float64Array | null;
   /** Perceptron weights of the word-type features (config.perceptronFeatures word-type), else null. */
   readonly features: FeatureWeights | null;
+  /** Perceptron weights of the neighbouring words' features (config.perceptronFeatures neighbours), else null. */
+  readonly neighbourFeatures: FeatureWeights | null;
 };
 
 /** Pseudo-count tables implied by the config: λ everywhere, overrides, 0 where IOB2 forbids. */
@@ -86,6 +88,7 @@ export function assembleModel(parts: {
   clusters?: ClusterEmissions | null;
   corrections?: Float64Array | null;
   features?: FeatureWeights | null;
+  neighbourFeatures?: FeatureWeights | null;
 }): TaggerModel {
   const { config, tags, vocabulary, statistics } = parts;
   if (statistics.states !== tags.length) throw new RangeError(`statistics have K=${statistics.states} states for ${tags.length} tags`);
@@ -105,5 +108,5 @@ export function assembleModel(parts: {
   });
   const nltk = config.nltkCompatible ? buildNltkTables(statistics, config.smoothing.emission, vocabulary.words.length) : null;
   const segmentStarts = statistics.contextEmissions === null ? null : segmentStartTable(tags, parts.scheme);
-  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, corrections: parts.corrections ?? null, features: parts.features ?? null, parameters, constraints, nltk, segmentStarts };
+  return { ...parts, calibration: parts.calibration ?? null, clusters: parts.clusters ?? null, corrections: parts.corrections ?? null, features: parts.features ?? null, neighbourFeatures: parts.neighbourFeatures ?? null, parameters, constraints, nltk, segmentStarts };
 }

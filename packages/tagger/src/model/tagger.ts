@@ -15,7 +15,7 @@ import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
 import { applyPlatt, fitPlatt, type PlattCalibration } from "../estimation/platt";
 import { planFolds } from "../evaluation/folds";
-import { trainEmissionCorrections, trainWordTypeWeights } from "../estimation/perceptron";
+import { trainEmissionCorrections, trainNeighbourWeights, trainWordTypeWeights } from "../estimation/perceptron";
 
 /** Options of {@link trainTagger} that are not part of the model's configuration. */
 export type TrainOptions = {
@@ -56,12 +56,7 @@ export function trainTagger(
   };
   const counted = assembleModel(parts);
   const countsOf = (others: readonly ColumnDocument[]) => trainTagger(others, { ...resolved, perceptron: 0, calibration: "none", semi: "none" }).model;
-  const model =
-    resolved.perceptron === 0 || resolved.nltkCompatible
-      ? counted
-      : resolved.perceptronFeatures === "word-type"
-        ? assembleModel({ ...parts, features: trainWordTypeWeights(counted, documents, resolved.perceptron, countsOf) })
-        : assembleModel({ ...parts, corrections: trainEmissionCorrections(counted, documents, resolved.perceptron, countsOf) });
+  const model = resolved.perceptron === 0 || resolved.nltkCompatible ? counted : withPerceptron(counted, parts, documents, resolved, countsOf);
   const unlabelled = options.unlabelled ?? [];
   if (resolved.semi === "none" || resolved.iterations === 0 || unlabelled.length === 0) return { model, history: [] };
   return refineWithUnlabelled(model, data.statistics, unlabelled, {
@@ -72,6 +67,22 @@ export function trainTagger(
     now: options.now,
     onIteration: options.onIteration,
   });
+}
+
+/** The count model `counted` with the perceptron weights config.perceptronFeatures names. */
+function withPerceptron(
+  counted: TaggerModel,
+  parts: Parameters<typeof assembleModel>[0],
+  documents: readonly ColumnDocument[],
+  config: TrainingConfig,
+  countsOf: (documents: readonly ColumnDocument[]) => TaggerModel,
+): TaggerModel {
+  if (config.perceptronFeatures === "word-type") return assembleModel({ ...parts, features: trainWordTypeWeights(counted, documents, config.perceptron, countsOf) });
+  if (config.perceptronFeatures === "neighbours") {
+    const { wordType, neighbours } = trainNeighbourWeights(counted, documents, config.perceptron, countsOf);
+    return assembleModel({ ...parts, features: wordType, neighbourFeatures: neighbours });
+  }
+  return assembleModel({ ...parts, corrections: trainEmissionCorrections(counted, documents, config.perceptron, countsOf) });
 }
 
 /** Folds of the cross-validation that fits the confidence calibration. */
