@@ -17,8 +17,9 @@
  *    NEIGHBOUR_PASSES passes (one run of the most passes per step and fold: the averages after
  *    fewer passes are those of shorter runs), on the same texts and folds; besides the table's figures, the per-fold CV differences from the
  *    count model (mean ± std over the 5 folds, paired: the same folds);
- *  - `tsx bench/features.ts selection [passes] [variants ...]`: what the CLI's selection picks with
- *    the neighbour perceptron as a third candidate, and the test F1 of its choice;
+ *  - `tsx bench/features.ts selection [variants ...]`: what the CLI's selection picks (its
+ *    candidates, then the neighbour perceptron taken on a paired t-test of its per-fold gains),
+ *    and the test F1 of its choice;
  *  - `tsx bench/features.ts brown-neighbours [passes]`: the Brown report with the neighbour
  *    perceptron instead of the word-type one.
  * Calibration is off: it does not change tags or F1.
@@ -34,7 +35,7 @@ import { evaluateModel } from "../src/evaluation/evaluation";
 import { pairedBootstrap } from "../src/metrics/bootstrap";
 import { trainNeighbourWeights, trainWordTypeWeights } from "../src/estimation/perceptron";
 import type { TaggerModel } from "../src/model/tagger-model";
-import { SELECTION_CANDIDATES, selectConfiguration } from "../src/estimation/select-config";
+import { type SelectionResult, selectConfiguration } from "../src/estimation/select-config";
 import { brownNewsSplit } from "../test/brown-corpus";
 import { tagDocument, trainTagger } from "../src/model/tagger";
 import { createRng } from "../src/util/random";
@@ -137,21 +138,20 @@ function neighbourScores(train: readonly ColumnDocument[], heldOut: readonly Col
 
 /**
  * What the CLI's selection (select-config.ts: 3-fold CV of the training data, 3,000 held-out
- * tokens per fold) picks when the neighbour perceptron (`passes` passes, NEIGHBOUR_RATE) is a
- * third candidate, per variant: the candidates' scores, the choice, and the test F1 of the
- * choice trained on train+dev (calibration off) with the count model's for comparison.
+ * tokens per fold, then its refinements on a paired t-test) picks, per variant: the candidates'
+ * scores, the refinements' per-fold gains and test, the choice, and the test F1 of the choice
+ * trained on train+dev (calibration off) with the count model's for comparison.
  */
-export function selectionReport(directory: string, passes: number, variants = VARIANTS.map((v) => v.name)): Array<{ variant: string; scores: readonly { name: string; score: number }[]; chosen: string; testF1: number; countTestF1: number; seconds: number }> {
+export function selectionReport(directory: string, variants = VARIANTS.map((v) => v.name)): Array<{ variant: string; scores: readonly { name: string; score: number }[]; refinements: SelectionResult["refinements"]; chosen: string; testF1: number; countTestF1: number; seconds: number }> {
   const read = (file: string) => parseColumnText(readFileSync(join(directory, file), "utf8"), { file }).documents;
-  const candidates = [...SELECTION_CANDIDATES, { name: `neighbours, ${passes} passes`, config: { perceptron: passes, perceptronFeatures: "neighbours" as const } }];
   return VARIANTS.filter((v) => variants.includes(v.name)).map((variant) => {
     const train = variant.transform([...read("train.bio"), ...read("dev.bio")], 12);
     const test = variant.transform(wikigoldTestArticles(directory), 13);
     const started = process.hrtime.bigint();
-    const selection = selectConfiguration(train, {}, { candidates });
+    const selection = selectConfiguration(train, {});
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;
     const f1Of = (config: Partial<TrainingConfig>) => evaluateModel(trainTagger(train, { ...config, calibration: "none" }).model, test).entities!.overall.f1;
-    return { variant: variant.name, scores: selection.scores, chosen: selection.chosen.name, testF1: f1Of(selection.chosen.config), countTestF1: f1Of({}), seconds };
+    return { variant: variant.name, scores: selection.scores, refinements: selection.refinements, chosen: selection.chosen.name, testF1: f1Of(selection.chosen.config), countTestF1: f1Of({}), seconds };
   });
 }
 
@@ -198,9 +198,10 @@ if (process.argv[1] !== undefined && resolve(process.argv[1]) === fileURLToPath(
       `Brown news POS, trigram: test token accuracy ${r.base.toFixed(4)} (train ${r.seconds[0].toFixed(0)} s); with neighbour perceptron, ${passes} passes ${r.features.toFixed(4)} (train ${r.seconds[1].toFixed(0)} s); Δ ${r.delta >= 0 ? "+" : ""}${r.delta.toFixed(4)} [${r.ci[0].toFixed(4)}, ${r.ci[1].toFixed(4)}]\n`,
     );
   } else if (what === "selection") {
-    for (const r of selectionReport(join(shared, "data", "wikigold"), Number(process.argv[3] ?? 3), process.argv.length > 4 ? process.argv.slice(4) : undefined)) {
+    for (const r of selectionReport(join(shared, "data", "wikigold"), process.argv.length > 3 ? process.argv.slice(3) : undefined)) {
       const scores = r.scores.map((s) => `${s.name} ${s.score.toFixed(4)}`).join(", ");
-      process.stdout.write(`${r.variant.padEnd(7)} 3-fold selection: ${scores} (${r.seconds.toFixed(0)} s) → ${r.chosen}: test F1 ${r.testF1.toFixed(4)} (count model ${r.countTestF1.toFixed(4)})\n`);
+      const refined = r.refinements.map((x) => `${x.name}: gains ${x.gains.map((g) => g.toFixed(4)).join("/")}, t ${x.t.toFixed(2)} (needs ${x.threshold}) ${x.taken ? "taken" : "not taken"}`).join("; ");
+      process.stdout.write(`${r.variant.padEnd(7)} 3-fold selection: ${scores}; ${refined} (${r.seconds.toFixed(0)} s) → ${r.chosen}: test F1 ${r.testF1.toFixed(4)} (count model ${r.countTestF1.toFixed(4)})\n`);
     }
   } else if (what === "neighbours") {
     // Optional `steps=0.05,0.1` replaces NEIGHBOUR_STEPS, `word-type` trains the word-type
