@@ -106,12 +106,16 @@ describe("a run with word clusters", () => {
 });
 
 describe("a run with perceptron passes", () => {
-  it("trains in one piece and stores the learned weights", async () => {
+  it("trains in one piece and stores the learned weights, over word and neighbour features unless told otherwise", async () => {
     const run = await trainedRun({ perceptron: 2, crossValidationFolds: null });
-    expect([run.shardCount, run.config.perceptron, run.config.clusters, run.documentCounts.unlabelled]).toEqual([1, 2, 0, 0]);
+    expect([run.shardCount, run.config.perceptron, run.config.perceptronFeatures, run.config.clusters, run.documentCounts.unlabelled]).toEqual([1, 2, "neighbours", 0, 0]);
     const model = await storedModel(run.taggerId!);
-    expect(model.config.perceptron).toBe(2);
-    expect(model.parameters.corrections).toBeTruthy();
+    expect([model.config.perceptron, model.config.perceptronFeatures]).toEqual([2, "neighbours"]);
+    expect(model.parameters.neighbourFeatures).toBeTruthy();
+    // Per-symbol weights when asked for.
+    const bySymbol = await trainedRun({ perceptron: 2, perceptronFeatures: "symbol", crossValidationFolds: null });
+    expect(bySymbol.config.perceptronFeatures).toBe("symbol");
+    expect((await storedModel(bySymbol.taggerId!)).parameters.corrections).toBeTruthy();
   });
 
   it("a run without either records both as 0 and reads no documents without gold", async () => {
@@ -133,7 +137,8 @@ describe("settings out of range", () => {
       [{ clusters: "ten" }, "clusters", "Enter a number."],
       [{ perceptron: 21 }, "perceptron", "Use at most 20 passes."],
       [{ perceptron: -3 }, "perceptron", "Use 0 passes (off) or more."],
-      [{ perceptron: 2, order: 2 }, "perceptron", "Perceptron passes need model order 1."],
+      [{ perceptron: 2, order: 2, perceptronFeatures: "symbol" }, "perceptronFeatures", "Weights per word need model order 1; choose word or neighbour features."],
+      [{ perceptron: 2, perceptronFeatures: "words" }, "perceptronFeatures", "Choose symbol, word-type or neighbours."],
     ];
     for (const [body, field, message] of cases) {
       const res = await lead.agent.post(`${base()}/runs`).send(body);

@@ -49,9 +49,11 @@ beforeAll(async () => {
 describe("training defaults", () => {
   it("mirror the engine's DEFAULT_TRAINING_CONFIG field for field", () => {
     const engine = DEFAULT_TRAINING_CONFIG;
-    const { crossValidationFolds: _k, testSplit: _t, ...mirrored } = trainingConfigDefaults;
+    const { crossValidationFolds: _k, testSplit: _t, perceptronFeatures, ...mirrored } = trainingConfigDefaults;
     const fromEngine = Object.fromEntries(Object.keys(mirrored).map((k) => [k, engine[k as keyof typeof engine]]));
     expect(mirrored).toEqual(fromEngine);
+    // On purpose (contracts/src/training.ts): a run's perceptron is over neighbour features, the engine's default over symbols.
+    expect([perceptronFeatures, engine.perceptronFeatures]).toEqual(["neighbours", "symbol"]);
   });
 });
 

@@ -5,8 +5,21 @@ import { z } from "zod";
  * `DEFAULT_TRAINING_CONFIG` of @tagloom/tagger (the settings its 5-fold cross-validation chose);
  * apps/api/test/training-defaults.test.ts fails when the two drift apart. The contracts package
  * stays free of the engine so the web bundle does not carry it. `crossValidationFolds` and
- * `testSplit` are options of a run, not of the engine.
+ * `testSplit` are options of a run, not of the engine. `perceptronFeatures` differs on purpose: a
+ * run's perceptron (off unless given passes) works over word and neighbour features, which gained
+ * on informal text (packages/tagger/README.md, "Neighbour features"), while the engine keeps its
+ * older per-symbol weights as the command line's default.
  */
+export const perceptronFeatureNames = ["symbol", "word-type", "neighbours"] as const;
+export type PerceptronFeatures = (typeof perceptronFeatureNames)[number];
+export const perceptronFeaturesSchema = z.enum(perceptronFeatureNames, "Choose symbol, word-type or neighbours.");
+/** How the run form and a run's settings name each kind of perceptron weights. */
+export const perceptronFeatureLabels: Record<PerceptronFeatures, string> = {
+  symbol: "Per word",
+  "word-type": "Word features",
+  neighbours: "Word and neighbour features",
+};
+
 export const trainingConfigDefaults = {
   smoothing: { start: 0.1, transition: 0.1, emission: 0.01 },
   positionBuckets: { token: [] as number[], sentence: [] as number[] },
@@ -23,6 +36,8 @@ export const trainingConfigDefaults = {
   seed: 1,
   clusters: 0,
   perceptron: 0,
+  /** What the perceptron's weights are over (when it has passes): the neighbour features gained on informal text. */
+  perceptronFeatures: "neighbours" as PerceptronFeatures,
   crossValidationFolds: 5 as number | null,
   testSplit: { kind: "corpus" } as TestSplit,
 };
@@ -77,14 +92,17 @@ export const trainingConfigInputSchema = z.strictObject({
   clusters: z.number("Enter a number.").int("Use a whole number of clusters.").min(0, "Use 0 clusters (off) or more.").max(1000, "Use at most 1000 clusters.").optional(),
   /** Averaged-perceptron passes over the training documents; 0 = off. */
   perceptron: z.number("Enter a number.").int("Use a whole number of passes.").min(0, "Use 0 passes (off) or more.").max(20, "Use at most 20 passes.").optional(),
+  /** Weights per word (symbol), per feature of the word (word-type) or also of its neighbours (neighbours). */
+  perceptronFeatures: perceptronFeaturesSchema.optional(),
 }).superRefine((v, ctx) => {
   // The engine's EM and sampling are first-order only.
   if (v.order === 2 && v.semi !== undefined && v.semi !== "none") {
     ctx.addIssue({ code: "custom", path: ["semi"], message: "Learning from unlabelled documents needs model order 1." });
   }
-  // So is its perceptron (it reweighs first-order emission scores).
-  if (v.order === 2 && v.perceptron !== undefined && v.perceptron > 0) {
-    ctx.addIssue({ code: "custom", path: ["perceptron"], message: "Perceptron passes need model order 1." });
+  // So is its perceptron over symbols (it reweighs first-order emission scores); the feature
+  // perceptrons work with either order.
+  if (v.order === 2 && v.perceptron !== undefined && v.perceptron > 0 && v.perceptronFeatures === "symbol") {
+    ctx.addIssue({ code: "custom", path: ["perceptronFeatures"], message: "Weights per word need model order 1; choose word or neighbour features." });
   }
 });
 export type TrainingConfigInput = z.infer<typeof trainingConfigInputSchema>;
@@ -207,6 +225,8 @@ export const resolvedTrainingConfigSchema = z.object({
   clusters: z.number().int(),
   /** 0 for runs recorded before the perceptron option existed. */
   perceptron: z.number().int(),
+  /** "symbol" for runs recorded before the feature perceptrons existed. */
+  perceptronFeatures: perceptronFeaturesSchema,
 });
 export type ResolvedTrainingConfig = z.infer<typeof resolvedTrainingConfigSchema>;
 

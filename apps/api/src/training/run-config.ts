@@ -20,6 +20,7 @@ export function resolveRunConfig(input: StartRunInput): { config: ResolvedTraini
     weight: input.weight ?? d.weight,
     clusters: input.clusters ?? d.clusters,
     perceptron: input.perceptron ?? d.perceptron,
+    perceptronFeatures: input.perceptronFeatures ?? d.perceptronFeatures,
   };
   return { config, seed: input.seed ?? d.seed, testSplit: input.testSplit ?? d.testSplit };
 }
@@ -41,6 +42,7 @@ export function engineConfigOf(config: ResolvedTrainingConfig, seed: number): Pa
     weight: config.weight,
     clusters: config.clusters,
     perceptron: config.perceptron,
+    perceptronFeatures: config.perceptronFeatures,
     seed,
   };
 }

@@ -41,7 +41,7 @@ const toRun = (r: Raw): RunRow => ({
   status: r.status as RunStatus,
   stage: (r.stage as RunStage | null) ?? null,
   // Runs recorded before clusters and perceptron passes existed trained without them.
-  config: { clusters: 0, perceptron: 0, ...(r.config as Partial<ResolvedTrainingConfig>) } as ResolvedTrainingConfig,
+  config: { clusters: 0, perceptron: 0, perceptronFeatures: "symbol", ...(r.config as Partial<ResolvedTrainingConfig>) } as ResolvedTrainingConfig,
   seed: r.seed as number,
   testSplit: r.test_split as TestSplit,
   progress: Number(r.progress),

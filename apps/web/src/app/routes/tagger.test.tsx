@@ -87,6 +87,7 @@ const run = {
     weight: 0.1,
     clusters: 0,
     perceptron: 0,
+    perceptronFeatures: "symbol",
   },
   seed: 4242,
   testSplit: { kind: "corpus" },

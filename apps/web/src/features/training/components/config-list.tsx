@@ -1,5 +1,5 @@
 import type { ResolvedTrainingConfig, TestSplit } from "@tagloom/contracts";
-import { trainingConfigDefaults as d } from "@tagloom/contracts";
+import { perceptronFeatureLabels, trainingConfigDefaults as d } from "@tagloom/contracts";
 
 const wordClassNames = { none: "none", bikel: "shape classes", extended: "extended shape classes", informal: "shape classes for informal text" } as const;
 const semiNames = { none: "no", em: "expected counts (EM)", sample: "sampled tags" } as const;
@@ -21,7 +21,7 @@ export function ConfigList({ config: c, seed, testSplit }: { config: ResolvedTra
     ],
     ["Documents without gold", c.semi === "none" ? semiNames.none : `${semiNames[c.semi]}, ${c.iterations} passes, weight ${c.weight}`, c.semi === d.semi],
     ["Word clusters", c.clusters === 0 ? "off" : `${c.clusters}, learnt with the documents without gold`, c.clusters === d.clusters],
-    ["Perceptron passes", c.perceptron === 0 ? "off" : String(c.perceptron), c.perceptron === d.perceptron],
+    ["Perceptron passes", c.perceptron === 0 ? "off" : `${c.perceptron}, ${perceptronFeatureLabels[c.perceptronFeatures].toLowerCase()}`, c.perceptron === d.perceptron && (c.perceptron === 0 || c.perceptronFeatures === d.perceptronFeatures)],
     ["Cross-validation", c.crossValidationFolds === null ? "off" : `${c.crossValidationFolds} folds`, c.crossValidationFolds === d.crossValidationFolds],
     ["Test split", testSplit.kind === "corpus" ? "the corpus's test documents" : `random hold-out of ${testSplit.percent} %`, testSplit.kind === "corpus"],
     ["Seed", String(seed), seed === d.seed],

@@ -73,8 +73,12 @@ describe("the training-run form", () => {
     await userEvent.clear(screen.getByLabelText("Perceptron passes"));
     await userEvent.type(screen.getByLabelText("Perceptron passes"), "3");
     expect(screen.getAllByText(/Changed; default 0\./)).toHaveLength(2);
+    expect(screen.getByLabelText("Perceptron weights")).toHaveValue("neighbours");
     await userEvent.click(screen.getByRole("button", { name: "Start training" }));
-    expect(onSubmit.mock.calls[0]![0]).toMatchObject({ clusters: 50, perceptron: 3 });
+    expect(onSubmit.mock.calls[0]![0]).toMatchObject({ clusters: 50, perceptron: 3, perceptronFeatures: "neighbours" });
+    await userEvent.selectOptions(screen.getByLabelText("Perceptron weights"), "Per word");
+    await userEvent.click(screen.getByRole("button", { name: "Start training" }));
+    expect(onSubmit.mock.calls[1]![0]).toMatchObject({ perceptron: 3, perceptronFeatures: "symbol" });
   });
 
   it("refuses out-of-range word clusters and perceptron passes with the shared schema's words", () => {
@@ -83,7 +87,11 @@ describe("the training-run form", () => {
     expect(bad("-1", "-1")).toEqual({ clusters: "Use 0 clusters (off) or more.", perceptron: "Use 0 passes (off) or more." });
     expect(bad("2.5", "1.5")).toEqual({ clusters: "Use a whole number of clusters.", perceptron: "Use a whole number of passes." });
     expect(bad("many", "")).toEqual({ clusters: "Enter a number.", perceptron: "Enter a number." });
-    expect(bad("0", "2", "2")).toEqual({ perceptron: "Perceptron passes need model order 1." });
+    // The feature perceptrons (the default) work with the trigram model too; weights per word need order 1.
+    expect(bad("0", "2", "2")).toBeNull();
+    expect(toRunInput({ ...defaultRunFormValues, perceptron: "2", order: "2", perceptronFeatures: "symbol" }).errors).toEqual({
+      perceptronFeatures: "Weights per word need model order 1; choose word or neighbour features.",
+    });
     expect(toRunInput({ ...defaultRunFormValues, clusters: "1000", perceptron: "20" }).input).toMatchObject({ clusters: 1000, perceptron: 20 });
   });
 });

@@ -1,4 +1,4 @@
-import { type StartRunInput, trainingConfigDefaults as d, trainingConfigInputSchema } from "@tagloom/contracts";
+import { type PerceptronFeatures, type StartRunInput, perceptronFeatureLabels, perceptronFeatureNames, trainingConfigDefaults as d, trainingConfigInputSchema } from "@tagloom/contracts";
 import { type ReactNode, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Card, Notice } from "@/components/ui/card";
@@ -29,6 +29,7 @@ export type RunFormValues = {
   seed: string;
   clusters: string;
   perceptron: string;
+  perceptronFeatures: PerceptronFeatures;
 };
 
 export const defaultRunFormValues: RunFormValues = {
@@ -54,6 +55,7 @@ export const defaultRunFormValues: RunFormValues = {
   seed: String(d.seed),
   clusters: String(d.clusters),
   perceptron: String(d.perceptron),
+  perceptronFeatures: d.perceptronFeatures,
 };
 
 /** Which form field shows the message of each request field (the API's and zod's paths). */
@@ -79,6 +81,7 @@ const fieldOfPath: Record<string, keyof RunFormValues> = {
   seed: "seed",
   clusters: "clusters",
   perceptron: "perceptron",
+  perceptronFeatures: "perceptronFeatures",
 };
 
 type Errors = Partial<Record<keyof RunFormValues, string>>;
@@ -128,6 +131,7 @@ export function toRunInput(v: RunFormValues): { input: StartRunInput; errors: nu
     seed: num("seed"),
     clusters: num("clusters"),
     perceptron: num("perceptron"),
+    perceptronFeatures: v.perceptronFeatures,
   };
   if (Object.keys(errors).length) return { input: null, errors };
   const parsed = trainingConfigInputSchema.safeParse(raw);
@@ -277,6 +281,17 @@ export function RunForm({ onSubmit, busy }: { onSubmit: (input: StartRunInput) =
         <div className="grid gap-3 sm:grid-cols-3">
           {numberField("clusters", "Word clusters", "Learnt from this corpus's documents without gold; 0 = off.", { inputMode: "numeric" })}
           {numberField("perceptron", "Perceptron passes", "Passes that reweigh word scores on the gold documents; 0 = off.", { inputMode: "numeric" })}
+          <Field label="Perceptron weights" error={errors.perceptronFeatures} hint={hint("perceptronFeatures", "Neighbouring words help most on informal text (chat, tickets, posts).")}>
+            {(id, desc) => (
+              <Select id={id} aria-describedby={desc} value={values.perceptronFeatures} onChange={(e) => set("perceptronFeatures", e.target.value as PerceptronFeatures)}>
+                {perceptronFeatureNames.map((f) => (
+                  <option key={f} value={f}>
+                    {perceptronFeatureLabels[f]}
+                  </option>
+                ))}
+              </Select>
+            )}
+          </Field>
         </div>
       </Card>
       <Card className="space-y-3">

@@ -85,14 +85,14 @@ describe("the run page", () => {
   it("shows word clusters and perceptron passes in the settings, and how many documents without gold were left out", () => {
     const run: TrainingRun = {
       ...base,
-      config: { ...base.config, clusters: 50, perceptron: 3 },
+      config: { ...base.config, clusters: 50, perceptron: 3, perceptronFeatures: "neighbours" },
       documentCounts: { train: 12, test: 4, unlabelled: 30, unlabelledLeftOut: 7, unlabelledTokens: 200_000 },
       shardCount: 1,
     };
     renderWithProviders(<RunView orgId={ORG} corpusId={CORPUS} run={run} canTrain={false} />);
     const clusters = screen.getByText("Word clusters").nextElementSibling!;
     expect(clusters).toHaveTextContent("50, learnt with the documents without gold (changed)");
-    expect(screen.getByText("Perceptron passes").nextElementSibling).toHaveTextContent("3 (changed)");
+    expect(screen.getByText("Perceptron passes").nextElementSibling).toHaveTextContent("3, word and neighbour features (changed)");
     expect(screen.getByText(/30 without gold \(7 more left out: over the token limit/)).toBeInTheDocument();
   });
 });
