@@ -27,7 +27,7 @@
  * maximising i, which is what the JavaScript loops' strict `>` picks, again without branches.
  */
 import type { EmissionInput, HmmParams } from "./hmm-params";
-import { CodeBuilder, encodeModule, F64, I32, I64, V128, type ValueType } from "./wasm-emitter";
+import { CodeBuilder, encodeModule, F64, I32, V128, type ValueType } from "./wasm-emitter";
 import { UNROLL_LIMIT } from "./viterbi-unrolled";
 
 /** Largest K served by the kernel: the first-maximum bitmask of one token is one i64. */
@@ -45,12 +45,13 @@ const SWAP_LANES = [8, 9, 10, 11, 12, 13, 14, 15, 0, 1, 2, 3, 4, 5, 6, 7];
 
 /**
  * The module for K states: one function
- * `decode(T, start, end, transitions, transitionBytes, index, indexStride, emissions, delta, path) → ok`
+ * `decode(T, start, end, transitions, transitionBytes, index, indexStride, emissions, delta, path, maxima) → log P`
  * over byte addresses in its memory. Rows are K f64 with stride K (unpadded, so tables copy
  * verbatim): states go two per vector, and for odd K the last "vector" holds state K−1 in both
  * lanes (load64_splat) and is stored from lane 0 only, so no lane ever reads or writes past a row.
  * Token t ≥ 1 uses K×K matrix number `i32[index + t·indexStride]` from `transitions` (stride 0:
- * one shared matrix). Returns NaN, path unwritten, when the scores fall in a case listed in the
+ * one shared matrix); `maxima` holds T×K scratch scores (each token's maxima before its emission
+ * scores, which the backtrace compares against). Returns NaN, path unwritten, when the scores fall in a case listed in the
  * file comment, else log P(path, observations) with the T×K lattice at `delta` and T state ids
  * at `path`.
  */
@@ -61,9 +62,9 @@ export function buildViterbiModule(K: number): Uint8Array {
   const K8 = K * 8;
   const KK8 = K * K * 8;
   const checkNegativeZero = K <= UNROLL_LIMIT;
-  const params: ValueType[] = [I32, I32, I32, I32, I32, I32, I32, I32, I32, I32];
+  const params: ValueType[] = [I32, I32, I32, I32, I32, I32, I32, I32, I32, I32, I32];
   const c = new CodeBuilder(params.length);
-  const [T, start, end, trans, transBytes, index, indexStride, em, delta, path] = params.map((_, i) => i);
+  const [T, start, end, trans, transBytes, index, indexStride, em, delta, path, maxima] = params.map((_, i) => i);
   const t = c.local(I32);
   const prev = c.local(I32);
   const cur = c.local(I32);
@@ -74,7 +75,8 @@ export function buildViterbiModule(K: number): Uint8Array {
   const pp = c.local(I32);
   const rp = c.local(I32);
   const stop = c.local(I32);
-  const mask = c.local(I64);
+  const mx = c.local(I32);
+  const q2 = c.local(I32);
   const best = c.local(F64);
   const s = c.local(V128);
   const x = c.local(V128);
@@ -104,8 +106,8 @@ export function buildViterbiModule(K: number): Uint8Array {
     c.v128And().localSet(ok);
   };
   const tree = Array.from({ length: Math.ceil(NV / 2) }, () => c.local(V128));
-  // arg = the lowest state whose sum (vector locals `sums`) is the maximum; no NaN among them.
-  const firstMaximum = () => {
+  // m = the maximum of the sums (vector locals `sums`) in both lanes; no NaN among them.
+  const maximum = () => {
     let level = sums;
     while (level.length > 1) {
       const next = tree.slice(0, Math.ceil(level.length / 2));
@@ -117,13 +119,27 @@ export function buildViterbiModule(K: number): Uint8Array {
       level = next;
     }
     c.localGet(level[0]).localGet(level[0]).i8x16Shuffle(SWAP_LANES).localGet(level[0]).f64x2Pmax().localSet(m);
-    for (let v = 0; v < NV; v++) {
-      if (v > 0) c.localGet(mask);
+  };
+  // arg = the lowest state whose sum equals m: the per-vector bitmasks joined by a tree of ors
+  // (a shorter dependency chain than one running or).
+  const firstEqual = () => {
+    const pieces: (() => void)[] = Array.from({ length: NV }, (_, v) => () => {
       c.localGet(sums[v]).localGet(m).f64x2Eq().i64x2Bitmask().i64ExtendI32U();
-      if (v > 0) c.i64Const(2 * v).i64Shl().i64Or();
-      c.localSet(mask);
-    }
-    c.localGet(mask).i64Ctz().i32WrapI64().localSet(arg);
+      if (v > 0) c.i64Const(2 * v).i64Shl();
+    });
+    const join = (from: number, to: number) => {
+      if (to - from === 1) return pieces[from]();
+      const mid = (from + to) >> 1;
+      join(from, mid);
+      join(mid, to);
+      c.i64Or();
+    };
+    join(0, NV);
+    c.i64Ctz().i32WrapI64().localSet(arg);
+  };
+  const firstMaximum = () => {
+    maximum();
+    firstEqual();
   };
   // tm = transitions + index[t · stride / 4] · K·K·8
   const matrixOf = () => {
@@ -171,12 +187,14 @@ export function buildViterbiModule(K: number): Uint8Array {
   // delta[t][j] = max_i (delta[t−1][i] + log P(j | i)) + em[t][j]   (Rabiner 1989, §III-B)
   c.localGet(delta).localSet(prev);
   c.localGet(em).localSet(er);
+  c.localGet(maxima).localSet(mx);
   c.i32Const(1).localSet(t);
   c.block().loop();
   c.localGet(t).localGet(T).i32LtS().i32Eqz().brIf(1);
   matrixOf();
   c.localGet(prev).i32Const(K8).i32Add().localSet(cur);
   c.localGet(er).i32Const(K8).i32Add().localSet(er);
+  c.localGet(mx).i32Const(K8).i32Add().localSet(mx);
   // Rows 1..K−1 of the matrix in a loop rather than straight-line code: unrolled, the compiler
   // issued every load of the K×K matrix before the first maximum and spilled most of them to the
   // stack (TurboFan keeps loads in program order and schedules pure arithmetic late); in a loop
@@ -204,6 +222,7 @@ export function buildViterbiModule(K: number): Uint8Array {
       }
     }
     for (let v = from; v < to; v++) {
+      storePair(mx, v, acc[v - from]);
       c.localGet(acc[v - from]);
       loadPair(er, 16 * v, v);
       c.f64x2Add().localSet(x);
@@ -230,11 +249,16 @@ export function buildViterbiModule(K: number): Uint8Array {
   c.localGet(path).localGet(T).i32Const(1).i32Sub().i32Const(4).i32Mul().i32Add().localSet(q);
   c.localGet(q).localGet(arg).i32Store();
   c.localGet(T).i32Const(1).i32Sub().localSet(t);
-  // Backtrace: path[t−1] = the first i maximising delta[t−1][i] + log P(path[t] | i).
+  // Backtrace: path[t−1] = the first i maximising delta[t−1][i] + log P(path[t] | i). That
+  // maximum is the forward pass's stored one (the same sums, and pmax returns one of them), so
+  // each step needs no maximum of its own: one load beside the column's, then the comparisons.
   c.block().loop();
   c.localGet(t).i32Const(1).i32LtS().brIf(1);
   matrixOf();
-  c.localGet(tm).localGet(arg).i32Const(8).i32Mul().i32Add().localSet(tm);
+  c.localGet(arg).i32Const(8).i32Mul().localSet(q2);
+  c.localGet(tm).localGet(q2).i32Add().localSet(tm);
+  c.localGet(mx).localGet(q2).i32Add().v128Load64Splat().localSet(m);
+  c.localGet(mx).i32Const(K8).i32Sub().localSet(mx);
   c.localGet(prev).i32Const(K8).i32Sub().localSet(prev);
   for (let v = 0; v < NV; v++) {
     loadPair(prev, 16 * v, v);
@@ -244,7 +268,7 @@ export function buildViterbiModule(K: number): Uint8Array {
     if (!half(v)) c.v128Load64Lane(1, (2 * v + 1) * K8);
     c.f64x2Add().localSet(sums[v]);
   }
-  firstMaximum();
+  firstEqual();
   c.localGet(q).i32Const(4).i32Sub().localSet(q);
   c.localGet(q).localGet(arg).i32Store();
   c.localGet(t).i32Const(1).i32Sub().localSet(t);
@@ -273,6 +297,7 @@ type DecodeExport = (
   emissions: number,
   delta: number,
   path: number,
+  maxima: number,
 ) => number;
 
 /**
@@ -296,6 +321,7 @@ type Kernel = {
   endAt: number;
   emAt: number;
   transAt: number;
+  maxAt: number;
   deltaViews: Float64Array[];
 };
 
@@ -363,6 +389,7 @@ function kernelFor(K: number): Kernel {
       endAt: 0,
       emAt: 0,
       transAt: 0,
+      maxAt: 0,
       deltaViews: [],
     };
     kernels.set(K, kernel);
@@ -390,11 +417,12 @@ function reserve(kernel: Kernel, tokens: number, matrixValues: number): boolean 
   const emAt = endAt + align16(K * 8);
   const transAt = emAt + align16(n * K * 8);
   // 16 bytes of slack: the transition check reads whole vectors.
-  const needed = transAt + align16(values * 8) + 16;
+  const maxAt = transAt + align16(values * 8) + 16;
+  const needed = maxAt + n * K * 8;
   if (needed > MEMORY_LIMIT) return false;
   const have = kernel.memory.buffer.byteLength;
   if (needed > have) kernel.memory.grow(Math.ceil((needed - have) / 65536));
-  Object.assign(kernel, { tokens: n, matrixValues: values, pathAt, indexAt, startAt, endAt, emAt, transAt });
+  Object.assign(kernel, { tokens: n, matrixValues: values, pathAt, indexAt, startAt, endAt, emAt, transAt, maxAt });
   kernel.f64 = new Float64Array(kernel.memory.buffer);
   kernel.i32 = new Int32Array(kernel.memory.buffer);
   kernel.deltaViews = [];
@@ -440,7 +468,7 @@ export function decodeViterbiWasm(params: HmmParams, input: EmissionInput, path:
   else kernel.gather(f64, emAt, scores, rows, T);
   if (indexed) for (let t = 0; t < T; t++) i32[kernel.indexAt / 4 + t] = tIndex[t];
   else i32[kernel.indexAt / 4] = 0;
-  const logProbability = kernel.decode(T, kernel.startAt, kernel.endAt, kernel.transAt, align16(copied * 8), kernel.indexAt, indexed ? 4 : 0, kernel.emAt, 0, kernel.pathAt);
+  const logProbability = kernel.decode(T, kernel.startAt, kernel.endAt, kernel.transAt, align16(copied * 8), kernel.indexAt, indexed ? 4 : 0, kernel.emAt, 0, kernel.pathAt, kernel.maxAt);
   if (Number.isNaN(logProbability)) return null;
   // A loop: for sentence-length paths it is cheaper than a TypedArray `set` call.
   for (let t = 0, at = kernel.pathAt / 4; t < T; t++) path[t] = i32[at + t];
