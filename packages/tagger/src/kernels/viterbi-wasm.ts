@@ -22,7 +22,8 @@
  * On such inputs {@link decodeViterbiWasm} returns null and the caller runs the JavaScript path.
  *
  * The argmaxes are recovered in the backtrace, as in viterbi.ts: for the chosen state j at token
- * t, the sums delta[t−1][i] + log P(j | i) are recomputed, their maximum m taken with pmax, and the
+ * t, the sums delta[t−1][i] + log P(j | i) are recomputed, their maximum m read back from the
+ * forward pass (which stores each token's maxima before adding the emission scores), and the
  * lowest i with sum == m found from the comparison bitmask (i64x2.bitmask, then ctz) — the first
  * maximising i, which is what the JavaScript loops' strict `>` picks, again without branches.
  */
