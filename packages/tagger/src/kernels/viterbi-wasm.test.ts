@@ -211,4 +211,41 @@ describe("decodeViterbiWasm", () => {
       expect(Array.from(js.path)).toEqual([0, 0]);
     }
   });
+
+  it("breaks ties toward the lowest state as enumeration does: every path equally likely (K = 1, 2, 3, 9, 17; T = 1..4)", () => {
+    // Brute force over all K^T paths (enumeratePaths keeps the first best path in lexicographic
+    // order, here all zeros); the looped forward pass (K ≥ 3) and the straight-line one (K ≤ 2) both.
+    for (const K of [1, 2, 3, 9, 17]) {
+      for (let T = 1; T <= (K > 9 ? 3 : 4); T++) {
+        const params = { states: K, start: new Float64Array(K).fill(-Math.log(K)), transitions: new Float64Array(K * K).fill(-Math.log(K)), end: null };
+        const input = { length: T, scores: new Float64Array(2 * K).fill(-0.5), rows: new Int32Array(T).fill(1), transitionIndex: null };
+        const path = new Int32Array(T).fill(-1);
+        const logProbability = decodeViterbiWasm(params, input, path, null);
+        const brute = enumeratePaths(params, input);
+        expect(Array.from(path), `K=${K} T=${T}`).toEqual(Array.from(brute.bestPath));
+        expect(Array.from(path), `K=${K} T=${T}`).toEqual(new Array<number>(T).fill(0));
+        expect(logProbability!, `K=${K} T=${T}`).toBeCloseTo(brute.bestLogProbability, 12);
+        expectSameAsJs(params, input, `all ties K=${K} T=${T}`);
+      }
+    }
+  });
+
+  it("equals the JavaScript kernels with many partial ties and −Infinity cells, one token and longer (scores on a coarse grid; seeds printed)", () => {
+    // Scores drawn from {−∞, −3, −2, −1}: sums tie often, so the first maximum must be the one
+    // the JavaScript loops' strict `>` keeps, in the forward maxima and the backtrace alike.
+    const grid = [-Infinity, -3, -2, -1];
+    for (const K of [1, 2, 3, 4, 5, 8, 9, 16, 17, 24, 25]) {
+      for (let seed = 1; seed <= 3; seed++) {
+        const rng = createRng(5000 + 100 * K + seed);
+        const draw = (n: number, allowInfinity: boolean) => Float64Array.from({ length: n }, () => grid[(allowInfinity ? 0 : 1) + rng.nextInt(allowInfinity ? 4 : 3)]);
+        const params = { states: K, start: draw(K, true), transitions: draw(K * K, true), end: seed === 2 ? draw(K, false) : null };
+        const V = 6;
+        const emissionTable = draw(V * K, true);
+        for (const T of [1, 2, 7, 31]) {
+          const rows = Int32Array.from({ length: T }, () => rng.nextInt(V));
+          expectSameAsJs(params, { length: T, scores: emissionTable, rows, transitionIndex: null }, `seed ${5000 + 100 * K + seed} K=${K} T=${T}`);
+        }
+      }
+    }
+  });
 });

@@ -22,18 +22,22 @@
  * On such inputs {@link decodeViterbiWasm} returns null and the caller runs the JavaScript path.
  *
  * The argmaxes are recovered in the backtrace, as in viterbi.ts: for the chosen state j at token
- * t, the sums delta[t−1][i] + log P(j | i) are recomputed, their maximum m taken with pmax, and the
+ * t, the sums delta[t−1][i] + log P(j | i) are recomputed, their maximum m read back from the
+ * forward pass (which stores each token's maxima before adding the emission scores), and the
  * lowest i with sum == m found from the comparison bitmask (i64x2.bitmask, then ctz) — the first
  * maximising i, which is what the JavaScript loops' strict `>` picks, again without branches.
  */
 import type { EmissionInput, HmmParams } from "./hmm-params";
-import { CodeBuilder, encodeModule, I32, I64, V128, type ValueType } from "./wasm-emitter";
+import { CodeBuilder, encodeModule, F64, I32, V128, type ValueType } from "./wasm-emitter";
 import { UNROLL_LIMIT } from "./viterbi-unrolled";
 
 /** Largest K served by the kernel: the first-maximum bitmask of one token is one i64. */
 export const WASM_STATE_LIMIT = 64;
 
-/** Destination vectors (two states each) kept in registers at once; x64 has 16 vector registers. */
+/**
+ * Destination vectors (two states each) whose maxima stay in registers during one pass over the
+ * predecessors; x64 has 16 vector registers, and each pass also holds one row's loaded vectors.
+ */
 const BLOCK = 12;
 
 const NEGATIVE_ZERO_BITS = [0, 0, 0, 0, 0, 0, 0, 0x80, 0, 0, 0, 0, 0, 0, 0, 0x80];
@@ -42,13 +46,15 @@ const SWAP_LANES = [8, 9, 10, 11, 12, 13, 14, 15, 0, 1, 2, 3, 4, 5, 6, 7];
 
 /**
  * The module for K states: one function
- * `decode(T, start, end, transitions, transitionBytes, index, indexStride, emissions, delta, path) → ok`
+ * `decode(T, start, end, transitions, transitionBytes, index, indexStride, emissions, delta, path, maxima) → log P`
  * over byte addresses in its memory. Rows are K f64 with stride K (unpadded, so tables copy
  * verbatim): states go two per vector, and for odd K the last "vector" holds state K−1 in both
  * lanes (load64_splat) and is stored from lane 0 only, so no lane ever reads or writes past a row.
  * Token t ≥ 1 uses K×K matrix number `i32[index + t·indexStride]` from `transitions` (stride 0:
- * one shared matrix). Returns 0, path unwritten, when the scores fall in a case listed in the
- * file comment, else 1 with the T×K lattice at `delta` and T state ids at `path`.
+ * one shared matrix); `maxima` holds T×K scratch scores (each token's maxima before its emission
+ * scores, which the backtrace compares against). Returns NaN, path unwritten, when the scores fall in a case listed in the
+ * file comment, else log P(path, observations) with the T×K lattice at `delta` and T state ids
+ * at `path`.
  */
 export function buildViterbiModule(K: number): Uint8Array {
   if (!Number.isInteger(K) || K < 1 || K > WASM_STATE_LIMIT) throw new RangeError(`buildViterbiModule: K=${K} outside 1..${WASM_STATE_LIMIT}`);
@@ -57,9 +63,9 @@ export function buildViterbiModule(K: number): Uint8Array {
   const K8 = K * 8;
   const KK8 = K * K * 8;
   const checkNegativeZero = K <= UNROLL_LIMIT;
-  const params: ValueType[] = [I32, I32, I32, I32, I32, I32, I32, I32, I32, I32];
+  const params: ValueType[] = [I32, I32, I32, I32, I32, I32, I32, I32, I32, I32, I32];
   const c = new CodeBuilder(params.length);
-  const [T, start, end, trans, transBytes, index, indexStride, em, delta, path] = params.map((_, i) => i);
+  const [T, start, end, trans, transBytes, index, indexStride, em, delta, path, maxima] = params.map((_, i) => i);
   const t = c.local(I32);
   const prev = c.local(I32);
   const cur = c.local(I32);
@@ -67,7 +73,12 @@ export function buildViterbiModule(K: number): Uint8Array {
   const er = c.local(I32);
   const arg = c.local(I32);
   const q = c.local(I32);
-  const mask = c.local(I64);
+  const pp = c.local(I32);
+  const rp = c.local(I32);
+  const stop = c.local(I32);
+  const mx = c.local(I32);
+  const q2 = c.local(I32);
+  const best = c.local(F64);
   const s = c.local(V128);
   const x = c.local(V128);
   const m = c.local(V128);
@@ -96,8 +107,8 @@ export function buildViterbiModule(K: number): Uint8Array {
     c.v128And().localSet(ok);
   };
   const tree = Array.from({ length: Math.ceil(NV / 2) }, () => c.local(V128));
-  // arg = the lowest state whose sum (vector locals `sums`) is the maximum; no NaN among them.
-  const firstMaximum = () => {
+  // m = the maximum of the sums (vector locals `sums`) in both lanes; no NaN among them.
+  const maximum = () => {
     let level = sums;
     while (level.length > 1) {
       const next = tree.slice(0, Math.ceil(level.length / 2));
@@ -109,19 +120,45 @@ export function buildViterbiModule(K: number): Uint8Array {
       level = next;
     }
     c.localGet(level[0]).localGet(level[0]).i8x16Shuffle(SWAP_LANES).localGet(level[0]).f64x2Pmax().localSet(m);
-    for (let v = 0; v < NV; v++) {
-      if (v > 0) c.localGet(mask);
+  };
+  // arg = the lowest state whose sum equals m: the per-vector bitmasks joined by a tree of ors
+  // (a shorter dependency chain than one running or).
+  const firstEqual = () => {
+    const pieces: (() => void)[] = Array.from({ length: NV }, (_, v) => () => {
       c.localGet(sums[v]).localGet(m).f64x2Eq().i64x2Bitmask().i64ExtendI32U();
-      if (v > 0) c.i64Const(2 * v).i64Shl().i64Or();
-      c.localSet(mask);
-    }
-    c.localGet(mask).i64Ctz().i32WrapI64().localSet(arg);
+      if (v > 0) c.i64Const(2 * v).i64Shl();
+    });
+    const join = (from: number, to: number) => {
+      if (to - from === 1) return pieces[from]();
+      const mid = (from + to) >> 1;
+      join(from, mid);
+      join(mid, to);
+      c.i64Or();
+    };
+    join(0, NV);
+    c.i64Ctz().i32WrapI64().localSet(arg);
+  };
+  const firstMaximum = () => {
+    maximum();
+    firstEqual();
   };
   // tm = transitions + index[t · stride / 4] · K·K·8
   const matrixOf = () => {
     c.localGet(trans).localGet(index).localGet(t).localGet(indexStride).i32Mul().i32Add().i32Load().i32Const(KK8).i32Mul().i32Add().localSet(tm);
   };
-  const returnZeroUnlessOk = () => c.block().localGet(ok).i64x2AllTrue().brIf(0).i32Const(0).ret().end();
+  const returnNaNUnlessOk = () => c.block().localGet(ok).i64x2AllTrue().brIf(0).f64Const(NaN).ret().end();
+  // acc[v] = (first ? x : pmax(acc[v], x)) for x = s + row vector v, the row at `rowBase` + `rowOffset`.
+  const updateRow = (from: number, to: number, rowBase: number, rowOffset: number, first: boolean) => {
+    for (let v = from; v < to; v++) {
+      const a = acc[v - from];
+      if (!first) c.localGet(a);
+      c.localGet(s);
+      loadPair(rowBase, rowOffset + 16 * v, v);
+      c.f64x2Add();
+      if (!first) c.f64x2Pmax();
+      c.localSet(a);
+    }
+  };
 
   c.f64x2Const(Infinity, Infinity).localSet(inf);
   c.v128Const(NEGATIVE_ZERO_BITS).localSet(negZero);
@@ -138,7 +175,7 @@ export function buildViterbiModule(K: number): Uint8Array {
     loadPair(end, 16 * v, v);
     c.localGet(inf).f64x2Lt().v128And().localSet(ok);
   }
-  returnZeroUnlessOk();
+  returnNaNUnlessOk();
 
   // delta[0][j] = start[j] + em[0][j]
   for (let v = 0; v < NV; v++) {
@@ -151,27 +188,42 @@ export function buildViterbiModule(K: number): Uint8Array {
   // delta[t][j] = max_i (delta[t−1][i] + log P(j | i)) + em[t][j]   (Rabiner 1989, §III-B)
   c.localGet(delta).localSet(prev);
   c.localGet(em).localSet(er);
+  c.localGet(maxima).localSet(mx);
   c.i32Const(1).localSet(t);
   c.block().loop();
   c.localGet(t).localGet(T).i32LtS().i32Eqz().brIf(1);
   matrixOf();
   c.localGet(prev).i32Const(K8).i32Add().localSet(cur);
   c.localGet(er).i32Const(K8).i32Add().localSet(er);
+  c.localGet(mx).i32Const(K8).i32Add().localSet(mx);
+  // Rows 1..K−1 of the matrix in a loop rather than straight-line code: unrolled, the compiler
+  // issued every load of the K×K matrix before the first maximum and spilled most of them to the
+  // stack (TurboFan keeps loads in program order and schedules pure arithmetic late); in a loop
+  // each row's loads meet their maxima in registers. Same additions and maxima in the same order.
+  const looped = K - 1 >= 2;
   for (let from = 0; from < NV; from += BLOCK) {
     const to = Math.min(NV, from + BLOCK);
-    for (let i = 0; i < K; i++) {
-      c.localGet(prev).v128Load64Splat(8 * i).localSet(s);
-      for (let v = from; v < to; v++) {
-        const a = acc[v - from];
-        if (i > 0) c.localGet(a);
-        c.localGet(s);
-        loadPair(tm, i * K8 + 16 * v, v);
-        c.f64x2Add();
-        if (i > 0) c.f64x2Pmax();
-        c.localSet(a);
+    c.localGet(prev).v128Load64Splat(0).localSet(s);
+    updateRow(from, to, tm, 0, true);
+    if (looped) {
+      c.localGet(prev).i32Const(8).i32Add().localSet(pp);
+      c.localGet(tm).i32Const(K8).i32Add().localSet(rp);
+      c.localGet(prev).i32Const(K8).i32Add().localSet(stop);
+      c.loop();
+      c.localGet(pp).v128Load64Splat(0).localSet(s);
+      updateRow(from, to, rp, 0, false);
+      c.localGet(pp).i32Const(8).i32Add().localSet(pp);
+      c.localGet(rp).i32Const(K8).i32Add().localSet(rp);
+      c.localGet(pp).localGet(stop).i32Ne().brIf(0);
+      c.end();
+    } else {
+      for (let i = 1; i < K; i++) {
+        c.localGet(prev).v128Load64Splat(8 * i).localSet(s);
+        updateRow(from, to, tm, i * K8, false);
       }
     }
     for (let v = from; v < to; v++) {
+      storePair(mx, v, acc[v - from]);
       c.localGet(acc[v - from]);
       loadPair(er, 16 * v, v);
       c.f64x2Add().localSet(x);
@@ -182,7 +234,7 @@ export function buildViterbiModule(K: number): Uint8Array {
   c.localGet(cur).localSet(prev);
   c.localGet(t).i32Const(1).i32Add().localSet(t);
   c.br(0).end().end();
-  returnZeroUnlessOk();
+  returnNaNUnlessOk();
 
   // Last state: the first maximum of delta[T−1][j] + end[j]; `prev` holds row T−1.
   for (let v = 0; v < NV; v++) {
@@ -191,14 +243,23 @@ export function buildViterbiModule(K: number): Uint8Array {
     c.f64x2Add().localSet(sums[v]);
   }
   firstMaximum();
+  // delta[T−1][last] + end[last], read back rather than taken from the maximum m: with ±0 among
+  // tied sums (possible above UNROLL_LIMIT) m's sign of zero need not be the first maximum's.
+  c.localGet(arg).i32Const(8).i32Mul().localSet(q);
+  c.localGet(prev).localGet(q).i32Add().f64Load().localGet(end).localGet(q).i32Add().f64Load().f64Add().localSet(best);
   c.localGet(path).localGet(T).i32Const(1).i32Sub().i32Const(4).i32Mul().i32Add().localSet(q);
   c.localGet(q).localGet(arg).i32Store();
-  // Backtrace: path[t−1] = the first i maximising delta[t−1][i] + log P(path[t] | i).
   c.localGet(T).i32Const(1).i32Sub().localSet(t);
+  // Backtrace: path[t−1] = the first i maximising delta[t−1][i] + log P(path[t] | i). That
+  // maximum is the forward pass's stored one (the same sums, and pmax returns one of them), so
+  // each step needs no maximum of its own: one load beside the column's, then the comparisons.
   c.block().loop();
   c.localGet(t).i32Const(1).i32LtS().brIf(1);
   matrixOf();
-  c.localGet(tm).localGet(arg).i32Const(8).i32Mul().i32Add().localSet(tm);
+  c.localGet(arg).i32Const(8).i32Mul().localSet(q2);
+  c.localGet(tm).localGet(q2).i32Add().localSet(tm);
+  c.localGet(mx).localGet(q2).i32Add().v128Load64Splat().localSet(m);
+  c.localGet(mx).i32Const(K8).i32Sub().localSet(mx);
   c.localGet(prev).i32Const(K8).i32Sub().localSet(prev);
   for (let v = 0; v < NV; v++) {
     loadPair(prev, 16 * v, v);
@@ -208,13 +269,13 @@ export function buildViterbiModule(K: number): Uint8Array {
     if (!half(v)) c.v128Load64Lane(1, (2 * v + 1) * K8);
     c.f64x2Add().localSet(sums[v]);
   }
-  firstMaximum();
+  firstEqual();
   c.localGet(q).i32Const(4).i32Sub().localSet(q);
   c.localGet(q).localGet(arg).i32Store();
   c.localGet(t).i32Const(1).i32Sub().localSet(t);
   c.br(0).end().end();
-  c.i32Const(1);
-  return encodeModule([{ name: "decode", params, results: [I32], code: c }], 1);
+  c.localGet(best);
+  return encodeModule([{ name: "decode", params, results: [F64], code: c }], 1);
 }
 
 type WasmMemory = { readonly buffer: ArrayBuffer; grow(pages: number): number };
@@ -237,17 +298,19 @@ type DecodeExport = (
   emissions: number,
   delta: number,
   path: number,
+  maxima: number,
 ) => number;
 
 /**
  * One instance per K and its memory, laid out for up to `tokens` tokens and `matrixValues`
  * transition scores (byte offsets below); grown, never shrunk. The views of the first T lattice
- * entries and path slots are kept per T, so copying results out allocates nothing once warm.
+ * entries are kept per T, so copying results out allocates nothing once warm.
  */
 type Kernel = {
   readonly K: number;
   readonly decode: DecodeExport;
   readonly gather: GatherRows;
+  readonly stage: StageVectors;
   readonly memory: WasmMemory;
   f64: Float64Array;
   i32: Int32Array;
@@ -259,8 +322,8 @@ type Kernel = {
   endAt: number;
   emAt: number;
   transAt: number;
+  maxAt: number;
   deltaViews: Float64Array[];
-  pathViews: Int32Array[];
 };
 
 const wasmApi = (globalThis as { WebAssembly?: WasmApi }).WebAssembly;
@@ -292,6 +355,20 @@ function gatherSource(K: number): string {
 
 const align16 = (bytes: number) => Math.ceil(bytes / 16) * 16;
 
+/** Copies start (K) and end (K, zeros for null) to f64 indices `startAt` and `endAt`. */
+type StageVectors = (out: Float64Array, startAt: number, start: Float64Array, endAt: number, end: Float64Array | null) => void;
+
+/**
+ * The body of a StageVectors for K, unrolled: TypedArray `set` costs about 28 ns per call here
+ * whatever the length (measured with 9 values), more than nine plain copies (built from integers only).
+ */
+function stageSource(K: number): string {
+  const starts = Array.from({ length: K }, (_, j) => `out[startAt + ${j}] = start[${j}];`).join(" ");
+  const ends = Array.from({ length: K }, (_, j) => `out[endAt + ${j}] = end[${j}];`).join(" ");
+  const zeros = Array.from({ length: K }, (_, j) => `out[endAt + ${j}] = 0;`).join(" ");
+  return `${starts} if (end === null) { ${zeros} } else { ${ends} }`;
+}
+
 function kernelFor(K: number): Kernel {
   let kernel = kernels.get(K);
   if (kernel === undefined) {
@@ -301,6 +378,7 @@ function kernelFor(K: number): Kernel {
       K,
       decode: instance.exports.decode as DecodeExport,
       gather: new Function("out", "at", "scores", "rows", "length", gatherSource(K)) as GatherRows,
+      stage: new Function("out", "startAt", "start", "endAt", "end", stageSource(K)) as StageVectors,
       memory,
       f64: new Float64Array(0),
       i32: new Int32Array(0),
@@ -312,8 +390,8 @@ function kernelFor(K: number): Kernel {
       endAt: 0,
       emAt: 0,
       transAt: 0,
+      maxAt: 0,
       deltaViews: [],
-      pathViews: [],
     };
     kernels.set(K, kernel);
   }
@@ -340,15 +418,15 @@ function reserve(kernel: Kernel, tokens: number, matrixValues: number): boolean 
   const emAt = endAt + align16(K * 8);
   const transAt = emAt + align16(n * K * 8);
   // 16 bytes of slack: the transition check reads whole vectors.
-  const needed = transAt + align16(values * 8) + 16;
+  const maxAt = transAt + align16(values * 8) + 16;
+  const needed = maxAt + n * K * 8;
   if (needed > MEMORY_LIMIT) return false;
   const have = kernel.memory.buffer.byteLength;
   if (needed > have) kernel.memory.grow(Math.ceil((needed - have) / 65536));
-  Object.assign(kernel, { tokens: n, matrixValues: values, pathAt, indexAt, startAt, endAt, emAt, transAt });
+  Object.assign(kernel, { tokens: n, matrixValues: values, pathAt, indexAt, startAt, endAt, emAt, transAt, maxAt });
   kernel.f64 = new Float64Array(kernel.memory.buffer);
   kernel.i32 = new Int32Array(kernel.memory.buffer);
   kernel.deltaViews = [];
-  kernel.pathViews = [];
   return true;
 }
 
@@ -380,9 +458,7 @@ export function decodeViterbiWasm(params: HmmParams, input: EmissionInput, path:
   const kernel = kernelFor(K);
   if ((T > kernel.tokens || copied > kernel.matrixValues) && !reserve(kernel, T, copied)) return null;
   const { f64, i32 } = kernel;
-  f64.set(start, kernel.startAt / 8);
-  if (end === null) f64.fill(0, kernel.endAt / 8, kernel.endAt / 8 + K);
-  else f64.set(end, kernel.endAt / 8);
+  kernel.stage(f64, kernel.startAt / 8, start, kernel.endAt / 8, end);
   const transAt = kernel.transAt / 8;
   if (copied === transitions.length) f64.set(transitions, transAt);
   else for (let q = 0; q < copied; q++) f64[transAt + q] = transitions[q];
@@ -393,14 +469,10 @@ export function decodeViterbiWasm(params: HmmParams, input: EmissionInput, path:
   else kernel.gather(f64, emAt, scores, rows, T);
   if (indexed) for (let t = 0; t < T; t++) i32[kernel.indexAt / 4 + t] = tIndex[t];
   else i32[kernel.indexAt / 4] = 0;
-  const ok = kernel.decode(T, kernel.startAt, kernel.endAt, kernel.transAt, align16(copied * 8), kernel.indexAt, indexed ? 4 : 0, kernel.emAt, 0, kernel.pathAt);
-  if (ok === 0) return null;
-  let pathView = kernel.pathViews[T];
-  if (pathView === undefined) {
-    pathView = i32.subarray(kernel.pathAt / 4, kernel.pathAt / 4 + T);
-    kernel.pathViews[T] = pathView;
-  }
-  path.set(pathView);
+  const logProbability = kernel.decode(T, kernel.startAt, kernel.endAt, kernel.transAt, align16(copied * 8), kernel.indexAt, indexed ? 4 : 0, kernel.emAt, 0, kernel.pathAt, kernel.maxAt);
+  if (Number.isNaN(logProbability)) return null;
+  // A loop: for sentence-length paths it is cheaper than a TypedArray `set` call.
+  for (let t = 0, at = kernel.pathAt / 4; t < T; t++) path[t] = i32[at + t];
   if (delta !== null) {
     let deltaView = kernel.deltaViews[T];
     if (deltaView === undefined) {
@@ -409,6 +481,5 @@ export function decodeViterbiWasm(params: HmmParams, input: EmissionInput, path:
     }
     delta.set(deltaView);
   }
-  const last = path[T - 1];
-  return f64[(T - 1) * K + last] + (end === null ? 0 : end[last]);
+  return logProbability;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { CodeBuilder, encodeModule, I32, V128 } from "./wasm-emitter";
+import { CodeBuilder, encodeModule, F64, I32, V128 } from "./wasm-emitter";
 
 type WasmForTests = {
   validate(bytes: Uint8Array): boolean;
@@ -68,5 +68,28 @@ describe("encodeModule", () => {
     const ordinary = lanes([-3, -Infinity], [-2.5, -7]);
     expect(ordinary.pmax).toEqual([-2.5, -7]);
     expect(ordinary.max).toEqual([-2.5, -7]);
+  });
+
+  it("encodes f64.const and f64x2.extract_lane (spec §5.4.1, §5.4.8): the bits come back unchanged", () => {
+    // f(k) = lane k of the vector (−0, 1/3); g() = f64.const NaN, as the Viterbi kernel declines.
+    const f = new CodeBuilder(0);
+    f.f64x2Const(-0, 1 / 3).f64x2ExtractLane(1);
+    const g = new CodeBuilder(0);
+    g.f64Const(NaN);
+    const h = new CodeBuilder(0);
+    h.f64x2Const(-0, 1 / 3).f64x2ExtractLane(0);
+    const bytes = encodeModule(
+      [
+        { name: "high", params: [], results: [F64], code: f },
+        { name: "nan", params: [], results: [F64], code: g },
+        { name: "low", params: [], results: [F64], code: h },
+      ],
+      1,
+    );
+    expect(wasm.validate(bytes)).toBe(true);
+    const exports = new wasm.Instance(new wasm.Module(bytes)).exports as Record<string, () => number>;
+    expect(exports.high()).toBe(1 / 3);
+    expect(exports.nan()).toBeNaN();
+    expect(Object.is(exports.low(), -0)).toBe(true);
   });
 });

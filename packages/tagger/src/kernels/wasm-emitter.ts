@@ -9,8 +9,9 @@
 /** Value types (spec §5.3, number and vector types). */
 export const I32 = 0x7f;
 export const I64 = 0x7e;
+export const F64 = 0x7c;
 export const V128 = 0x7b;
-export type ValueType = typeof I32 | typeof I64 | typeof V128;
+export type ValueType = typeof I32 | typeof I64 | typeof F64 | typeof V128;
 
 function pushUnsigned(bytes: number[], value: number): void {
   if (!Number.isInteger(value) || value < 0 || value > 0xffffffff) throw new RangeError(`LEB128: ${value} is not a u32`);
@@ -102,6 +103,9 @@ export class CodeBuilder {
   i32Eqz(): this {
     return this.op(0x45);
   }
+  i32Ne(): this {
+    return this.op(0x47);
+  }
   /** `loop` with no result; `br 0` inside jumps back to its start. */
   loop(): this {
     return this.op(0x03).op(0x40);
@@ -120,6 +124,12 @@ export class CodeBuilder {
   }
   i32Load(offset = 0): this {
     return this.op(0x28).memarg(2, offset);
+  }
+  f64Load(offset = 0): this {
+    return this.op(0x2b).memarg(3, offset);
+  }
+  f64Add(): this {
+    return this.op(0xa0);
   }
   /** v128.load; `alignLog2` 3 when only 8-byte alignment is guaranteed (a hint, never a trap). */
   v128Load(offset = 0, alignLog2 = 4): this {
@@ -162,6 +172,20 @@ export class CodeBuilder {
     lanes.setFloat64(0, low, true);
     lanes.setFloat64(8, high, true);
     for (let k = 0; k < 16; k++) this.bytes.push(lanes.getUint8(k));
+    return this;
+  }
+  /** f64.const (little-endian IEEE 754 bits). */
+  f64Const(value: number): this {
+    this.op(0x44);
+    const bits = new DataView(new ArrayBuffer(8));
+    bits.setFloat64(0, value, true);
+    for (let k = 0; k < 8; k++) this.bytes.push(bits.getUint8(k));
+    return this;
+  }
+  /** Lane `lane` of an f64x2 vector as an f64. */
+  f64x2ExtractLane(lane: number): this {
+    this.simd(0x21);
+    this.bytes.push(lane);
     return this;
   }
   /** A constant vector of sixteen bytes (lane 0 first). */
