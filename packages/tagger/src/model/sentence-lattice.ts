@@ -60,10 +60,11 @@ export type SentenceLattice = {
   logStart: Float64Array;
   start: Float64Array;
   /**
-   * Per-step transition scores: step t (t ≥ 1) reads the K×K matrix number stepIndex[t] of
-   * logSteps (log) and steps (probabilities). These arrays are the model cache's own (matrices
-   * per previous symbol, after a patch area where steps with word-specific cells are written), so
-   * a step costs no copy unless its word overrides cells.
+   * Per-step transition scores, column by column: the score of state i → state j at step t
+   * (t ≥ 1) is logSteps[columns[t·K + j] + i] (log) and steps[columns[t·K + j] + i]
+   * (probability). These arrays are the model cache's own (column-major matrices per previous
+   * symbol, after a patch area where the columns that a step's word overrides are written), so a
+   * step copies only the columns its word changes.
    */
   logSteps: Float64Array;
   steps: Float64Array;
@@ -72,8 +73,8 @@ export type SentenceLattice = {
   emissions: Float64Array;
   /** K end probabilities, or null. */
   end: Float64Array | null;
-  /** Matrix number of each step (entry 0 unused). */
-  stepIndex: Int32Array;
+  /** T×K column offsets into logSteps/steps (row 0 unused). */
+  columns: Int32Array;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
   /** Emission row of each token in the model cache (see Cache.wordRows). */
@@ -105,11 +106,12 @@ type Cache = {
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
   /**
-   * The same with the context-free context-emission ratio added, and its exp: matrix 0 holds the
-   * plain transitions of models without previous-word or context tables, matrices 1..poolSize
-   * the pool of patched matrices (place h is matrix 1 + h), matrices poolSize + 1 + t this
-   * sentence's step t when its pool place is taken by a pair this sentence uses, and slot s is
-   * matrix patches + s.
+   * The same with the context-free context-emission ratio added, and its exp, as column-major
+   * K×K matrices (cell (i, j) of matrix m at m·K² + j·K + i): matrix 0 holds the plain
+   * transitions of models without previous-word or context tables, matrices 1..poolSize the pool
+   * of patched columns (place h is matrix 1 + h: the pair's patched columns at their own
+   * positions, the others unused), matrices poolSize + 1 + t this sentence's step t when its pool
+   * place is taken by a pair this sentence uses, and slot s is matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
@@ -120,6 +122,11 @@ type Cache = {
    * of the sentence that last wrote the place (a place that sentence's steps read is not replaced).
    */
   poolKeys: Int32Array;
+  /** Per place and state j: 1 when the place's matrix holds the pair's patched column j. */
+  poolColumns: Uint8Array;
+  /** Per state j: the patch number that last copied column j (patchCount when it is patched now). */
+  columnMark: Int32Array;
+  patchCount: number;
   poolSize: number;
   sentence: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
@@ -142,6 +149,12 @@ type Cache = {
   exceptionOffsets: Int32Array | null;
   exceptionCells: Int32Array | null;
   exceptionRatios: Float64Array | null;
+  /** Per exception: its cell's column j and column-major position j·K + i (segment cells; −1 for start states). */
+  exceptionColumns: Int32Array | null;
+  exceptionColumnCells: Int32Array | null;
+  /** Per state j, the states i with i → j inside a segment: insideRows[insideOffsets[j]..insideOffsets[j+1]). */
+  insideOffsets: Int32Array;
+  insideRows: Int32Array;
   /**
    * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous, symbol) →
    * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
@@ -186,7 +199,7 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     logEmissions: new Float64Array(capacity * K),
     emissions: new Float64Array(capacity * K),
     end: null,
-    stepIndex: new Int32Array(capacity),
+    columns: new Int32Array(capacity * K),
     rows: new Int32Array(capacity),
     hashes: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
@@ -208,6 +221,17 @@ function createCache(model: TaggerModel): Cache {
   let exceptionOffsets: Int32Array | null = null;
   let exceptionCells: Int32Array | null = null;
   let exceptionRatios: Float64Array | null = null;
+  let exceptionColumns: Int32Array | null = null;
+  let exceptionColumnCells: Int32Array | null = null;
+  const insideOffsets = new Int32Array(K + 1);
+  const inside: number[] = [];
+  if (model.segmentStarts !== null) {
+    for (let j = 0; j < K; j++) {
+      for (let i = 0; i < K; i++) if (model.segmentStarts[i * K + j] !== 1) inside.push(i);
+      insideOffsets[j + 1] = inside.length;
+    }
+  }
+  const insideRows = Int32Array.from(inside);
   let pairIndex: PairTable | null = null;
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
@@ -241,6 +265,8 @@ function createCache(model: TaggerModel): Cache {
     for (let s = 0; s < S; s++) exceptionOffsets[s + 1] = exceptionOffsets[s] + sizes[s + 1];
     exceptionCells = new Int32Array(exceptionOffsets[S]);
     exceptionRatios = new Float64Array(exceptionOffsets[S]);
+    exceptionColumns = new Int32Array(exceptionOffsets[S]);
+    exceptionColumnCells = new Int32Array(exceptionOffsets[S]);
     const fill = exceptionOffsets.slice(0, S);
     // Inside-segment contexts: group the entries by (previous symbol, symbol).
     pairIndex = createPairTable();
@@ -257,6 +283,8 @@ function createCache(model: TaggerModel): Cache {
         const j = row % K;
         const x = fill[symbol]++;
         exceptionCells[x] = context === K ? KK + j : context * K + j;
+        exceptionColumns[x] = context === K ? -1 : j;
+        exceptionColumnCells[x] = context === K ? -1 : j * K + context;
         exceptionRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
       }
     }
@@ -308,6 +336,9 @@ function createCache(model: TaggerModel): Cache {
     previousExp: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
     patches: 1 + poolSizeFor(K) + 64,
     poolKeys: new Int32Array(4 * poolSizeFor(K)),
+    poolColumns: new Uint8Array(K * poolSizeFor(K)),
+    columnMark: new Int32Array(K),
+    patchCount: 0,
     poolSize: poolSizeFor(K),
     sentence: 0,
     pairSymbols,
@@ -318,6 +349,10 @@ function createCache(model: TaggerModel): Cache {
     exceptionOffsets,
     exceptionCells,
     exceptionRatios,
+    exceptionColumns,
+    exceptionColumnCells,
+    insideOffsets,
+    insideRows,
     pairIndex,
     pairStarts: pairStartsOut,
     pairStates,
@@ -432,7 +467,8 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   }
   const folded = cache.previousLog;
   const at = (cache.patches + entry) * KK;
-  for (let x = 0; x < KK; x++) folded[at + x] = logs[out0 + x];
+  // Column-major: cell (i, j) at j·K + i.
+  for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) folded[at + j * K + i] = logs[out0 + i * K + j];
   const hasRow = cache.previousHasRow;
   hasRow.fill(0, entry * K, entry * K + K);
   if (contextTable !== null && segmentStarts !== null) {
@@ -447,7 +483,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
         const u = contextTable.distinct.values[found];
         wordZero = Math.log((0 + u) / (n + u));
       }
-      for (let i = 0; i < K; i++) folded[at + i * K + j] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
+      for (let i = 0; i < K; i++) folded[at + j * K + i] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
     }
   }
   for (let x = 0; x < KK; x++) cache.previousExp[at + x] = Math.exp(folded[at + x]);
@@ -517,6 +553,14 @@ function reservePatches(cache: Cache, length: number): void {
   cache.previousLog = log;
   cache.previousExp = exp;
   cache.patches = patches;
+}
+
+/** Copies one column (K numbers) of the log and the probability matrices. */
+function copyColumn(logs: Float64Array, exps: Float64Array, from: number, to: number, K: number): void {
+  for (let i = 0; i < K; i++) {
+    logs[to + i] = logs[from + i];
+    exps[to + i] = exps[from + i];
+  }
 }
 
 /**
@@ -607,84 +651,119 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
   }
-  const stepIndex = lattice.stepIndex;
+  const columns = lattice.columns;
   if (parameters.prevWord === null && !withContext) {
-    // One matrix for every step: the base transitions, in patch matrix 0.
-    for (let x = 0; x < KK; x++) {
-      cache.previousLog[x] = parameters.transitions[x];
-      cache.previousExp[x] = Math.exp(parameters.transitions[x]);
+    // One matrix for every step: the base transitions, in patch matrix 0 (column-major).
+    for (let i = 0; i < K; i++) {
+      for (let j = 0; j < K; j++) {
+        cache.previousLog[j * K + i] = parameters.transitions[i * K + j];
+        cache.previousExp[j * K + i] = Math.exp(parameters.transitions[i * K + j]);
+      }
     }
     lattice.logSteps = cache.previousLog;
     lattice.steps = cache.previousExp;
-    for (let t = 1; t < T; t++) stepIndex[t] = 0;
+    for (let t = 1; t < T; t++) for (let j = 0, c = t * K; j < K; j++) columns[c + j] = j * K;
     return lattice;
   }
+  const poolColumns = cache.poolColumns;
+  const mark = cache.columnMark;
+  const insideOffsets = cache.insideOffsets;
+  const insideRows = cache.insideRows;
+  const columnCells = cache.exceptionColumnCells!;
+  const exceptionColumns = cache.exceptionColumns!;
   for (let t = 1; t < T; t++) {
     const previous = symbols[t - 1];
     const slot = previousEntry(model, cache, previous);
-    const matrix = cache.patches + slot;
-    stepIndex[t] = matrix;
-    if (!withContext) continue;
-    const symbol = symbols[t];
-    const first = offsets[symbol];
-    const last = offsets[symbol + 1];
-    // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
-    const hasSegmentCells = first < last && cells[first] < KK;
-    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
-    if (!hasSegmentCells && !maybePair) continue;
-    const place = 4 * poolPlace(previous, symbol, poolMask);
-    if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
-      const pooled = poolKeys[place + 2];
-      if (pooled > 0) {
-        stepIndex[t] = pooled;
-        // This sentence reads the matrix now: keep the place until the next sentence.
-        poolKeys[place + 3] = cache.sentence;
+    const matrix = (cache.patches + slot) * KK;
+    const at = t * K;
+    if (withContext) {
+      const symbol = symbols[t];
+      const first = offsets[symbol];
+      const last = offsets[symbol + 1];
+      // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
+      const hasSegmentCells = first < last && cells[first] < KK;
+      const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
+      if (hasSegmentCells || maybePair) {
+        const place = 4 * poolPlace(previous, symbol, poolMask);
+        const h = place >> 2;
+        if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
+          const pooled = poolKeys[place + 2];
+          if (pooled > 0) {
+            // This sentence reads the matrix now: keep the place until the next sentence.
+            poolKeys[place + 3] = cache.sentence;
+            const own = pooled * KK;
+            for (let j = 0, f = h * K; j < K; j++) columns[at + j] = (poolColumns[f + j] !== 0 ? own : matrix) + j * K;
+            continue;
+          }
+        } else {
+          // The place is free unless this sentence reads its matrix.
+          const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
+          const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
+          if (hasSegmentCells || q >= 0) {
+            // This word overrides cells: the columns it touches are copied from the slot's matrix
+            // into the pair's pool matrix (or this step's own matrix when the place is taken) and
+            // patched there; the step reads its other columns from the slot's matrix.
+            const patched = free ? 1 + h : 1 + cache.poolSize + t;
+            const out = patched * KK;
+            const stamp = ++cache.patchCount;
+            const logs = cache.previousLog;
+            const exps = cache.previousExp;
+            const base = cache.previousBase;
+            const from = slot * KK;
+            let touched = 0;
+            // Segment-start cells where this word was seen after state i (exact ratio precomputed).
+            for (let x = first; x < last; x++) {
+              const cell = cells[x];
+              if (cell >= KK) continue;
+              const c = columnCells[x];
+              const j = exceptionColumns[x];
+              if (mark[j] !== stamp) {
+                mark[j] = stamp;
+                touched++;
+                copyColumn(logs, exps, matrix + j * K, out + j * K, K);
+              }
+              const v = base[from + cell] + ratios[x];
+              logs[out + c] = v;
+              exps[out + c] = Math.exp(v);
+            }
+            // Inside-segment cells whose context (the previous word) was seen followed by this word.
+            if (q >= 0) {
+              const pairStates = cache.pairStates!;
+              const pairRatios = cache.pairRatios!;
+              for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
+                const j = pairStates[y];
+                const r0 = insideOffsets[j];
+                const r1 = insideOffsets[j + 1];
+                if (r0 === r1) continue;
+                if (mark[j] !== stamp) {
+                  mark[j] = stamp;
+                  touched++;
+                  copyColumn(logs, exps, matrix + j * K, out + j * K, K);
+                }
+                const ratio = pairRatios[y];
+                for (let r = r0; r < r1; r++) {
+                  const i = insideRows[r];
+                  const v = base[from + i * K + j] + ratio;
+                  logs[out + j * K + i] = v;
+                  exps[out + j * K + i] = Math.exp(v);
+                }
+              }
+            }
+            if (touched > 0) {
+              if (free) {
+                setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
+                for (let j = 0, f = h * K; j < K; j++) poolColumns[f + j] = mark[j] === stamp ? 1 : 0;
+              }
+              for (let j = 0; j < K; j++) columns[at + j] = (mark[j] === stamp ? out : matrix) + j * K;
+              continue;
+            }
+          }
+          // The pair overrides no cell: remember that, and the slot's matrix serves.
+          if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
+        }
       }
-      continue;
     }
-    // The place is free unless this sentence reads its matrix.
-    const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
-    const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
-    if (!hasSegmentCells && q < 0) {
-      if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
-      continue;
-    }
-    // This word overrides cells: patch a copy of the slot's matrix into the pair's pool matrix,
-    // or into this step's own matrix when the place is taken.
-    const patched = free ? 1 + place / 4 : 1 + cache.poolSize + t;
-    if (free) setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
-    const logs = cache.previousLog;
-    const exps = cache.previousExp;
-    const out = patched * KK;
-    const src = matrix * KK;
-    // Native block copies (memmove), not K² element loads and stores.
-    logs.copyWithin(out, src, src + KK);
-    exps.copyWithin(out, src, src + KK);
-    stepIndex[t] = patched;
-    const base = cache.previousBase;
-    const from = slot * KK;
-    // Segment-start cells where this word was seen after state i (exact ratio precomputed).
-    for (let x = first; x < last; x++) {
-      const cell = cells[x];
-      if (cell >= KK) continue;
-      const v = base[from + cell] + ratios[x];
-      logs[out + cell] = v;
-      exps[out + cell] = Math.exp(v);
-    }
-    // Inside-segment cells whose context (the previous word) was seen followed by this word.
-    if (q < 0) continue;
-    const pairStates = cache.pairStates!;
-    const pairRatios = cache.pairRatios!;
-    for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
-      const j = pairStates[y];
-      const ratio = pairRatios[y];
-      for (let i = 0; i < K; i++) {
-        if (segmentStarts[i * K + j] === 1) continue;
-        const v = base[from + i * K + j] + ratio;
-        logs[out + i * K + j] = v;
-        exps[out + i * K + j] = Math.exp(v);
-      }
-    }
+    for (let j = 0; j < K; j++) columns[at + j] = matrix + j * K;
   }
   lattice.logSteps = cache.previousLog;
   lattice.steps = cache.previousExp;
