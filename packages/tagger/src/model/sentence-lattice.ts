@@ -141,6 +141,11 @@ type Cache = {
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
   previousAnyRow: Uint8Array;
+  /**
+   * Per previous slot and state i: 1 when row i of its transition scores is its own (the
+   * previous word has Witten–Bell counts there), 0 when it is the model's plain row.
+   */
+  previousOwnRow: Uint8Array;
   previousCount: number;
   /**
    * Per symbol, CSR of the segment-start cells (i·K + j, context i) and start states (K·K + j,
@@ -149,6 +154,12 @@ type Cache = {
   exceptionOffsets: Int32Array | null;
   exceptionCells: Int32Array | null;
   exceptionRatios: Float64Array | null;
+  /**
+   * Per exception (segment cells): its step score after a previous word whose row i is the plain
+   * one, transitions(i, j) + the exact ratio, log and exp, so most patched cells cost no exp.
+   */
+  exceptionLog: Float64Array | null;
+  exceptionExp: Float64Array | null;
   /** Per exception: its cell's column j and column-major position j·K + i (segment cells; −1 for start states). */
   exceptionColumns: Int32Array | null;
   exceptionColumnCells: Int32Array | null;
@@ -163,6 +174,16 @@ type Cache = {
   pairStarts: Int32Array | null;
   pairStates: Int32Array | null;
   pairRatios: Float64Array | null;
+  /**
+   * Per pair entry y (state j): its inside-segment cells' step scores (one per state i with
+   * i → j inside a segment, in insideRows order) at pairCellLog/pairCellExp[pairCells[y]..pairCells[y+1]),
+   * computed the first time the pair's step is patched (pairReady[q] = 1): they depend on the
+   * pair only.
+   */
+  pairCells: Int32Array | null;
+  pairCellLog: Float64Array | null;
+  pairCellExp: Float64Array | null;
+  pairReady: Uint8Array | null;
   /** Context-free parts: segment-start cells' log(u/(n+u)) (0 without a row), and the start's. */
   segmentZero: Float64Array;
   startZero: Float64Array;
@@ -236,6 +257,10 @@ function createCache(model: TaggerModel): Cache {
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
+  let pairCells: Int32Array | null = null;
+  let pairReady: Uint8Array | null = null;
+  let exceptionLog: Float64Array | null = null;
+  let exceptionExp: Float64Array | null = null;
   const pairSymbols = new Uint8Array(S);
   const pairFilter = new Uint32Array(PAIR_FILTER_WORDS);
   const table = parameters.contextEmission;
@@ -321,6 +346,16 @@ function createCache(model: TaggerModel): Cache {
       pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
     }
     pairStartsOut = pairStarts;
+    pairCells = new Int32Array(pairStates.length + 1);
+    for (let y = 0; y < pairStates.length; y++) pairCells[y + 1] = pairCells[y] + insideOffsets[pairStates[y] + 1] - insideOffsets[pairStates[y]];
+    pairReady = new Uint8Array(pairSizes.length);
+    exceptionLog = new Float64Array(exceptionCells.length);
+    exceptionExp = new Float64Array(exceptionCells.length);
+    for (let x = 0; x < exceptionCells.length; x++) {
+      if (exceptionCells[x] >= KK) continue;
+      exceptionLog[x] = parameters.transitions[exceptionCells[x]] + exceptionRatios[x];
+      exceptionExp[x] = Math.exp(exceptionLog[x]);
+    }
   }
   return {
     K,
@@ -345,6 +380,7 @@ function createCache(model: TaggerModel): Cache {
     pairFilter,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
+    previousOwnRow: new Uint8Array(64 * K),
     previousCount: 0,
     exceptionOffsets,
     exceptionCells,
@@ -357,6 +393,12 @@ function createCache(model: TaggerModel): Cache {
     pairStarts: pairStartsOut,
     pairStates,
     pairRatios,
+    pairCells,
+    pairCellLog: pairCells === null ? null : new Float64Array(pairCells[pairCells.length - 1]),
+    pairCellExp: pairCells === null ? null : new Float64Array(pairCells[pairCells.length - 1]),
+    pairReady,
+    exceptionLog,
+    exceptionExp,
     segmentZero,
     startZero,
     end,
@@ -440,6 +482,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   cache.previousLog = grow(cache.previousLog, (cache.patches + entry + 1) * KK);
   cache.previousExp = grow(cache.previousExp, (cache.patches + entry + 1) * KK);
   cache.previousHasRow = grow(cache.previousHasRow, (entry + 1) * K);
+  cache.previousOwnRow = grow(cache.previousOwnRow, (entry + 1) * K);
   cache.previousAnyRow = grow(cache.previousAnyRow, entry + 1);
   cache.previousAnyRow[entry] = 0;
   const { parameters } = model;
@@ -456,6 +499,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   for (let i = 0; i < K; i++) {
     const out = out0 + i * K;
     const row = table === null ? -1 : prevWordRow(table, previous * K + i);
+    cache.previousOwnRow[entry * K + i] = row < 0 ? 0 : 1;
     if (table === null || row < 0) {
       for (let j = 0; j < K; j++) logs[out + j] = base[i * K + j];
     } else {
@@ -671,6 +715,8 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   const insideRows = cache.insideRows;
   const columnCells = cache.exceptionColumnCells!;
   const exceptionColumns = cache.exceptionColumns!;
+  const exceptionLog = cache.exceptionLog!;
+  const exceptionExp = cache.exceptionExp!;
   for (let t = 1; t < T; t++) {
     const previous = symbols[t - 1];
     const slot = previousEntry(model, cache, previous);
@@ -711,7 +757,11 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
             const base = cache.previousBase;
             const from = slot * KK;
             let touched = 0;
-            // Segment-start cells where this word was seen after state i (exact ratio precomputed).
+            // Re-read after previousEntry, which may have grown the array.
+            const ownRows = cache.previousOwnRow;
+            const ownRow = slot * K;
+            // Segment-start cells where this word was seen after state i (exact ratio precomputed,
+            // and the whole score too unless the previous word has its own row i).
             for (let x = first; x < last; x++) {
               const cell = cells[x];
               if (cell >= KK) continue;
@@ -722,15 +772,36 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
                 touched++;
                 copyColumn(logs, exps, matrix + j * K, out + j * K, K);
               }
-              const v = base[from + cell] + ratios[x];
-              logs[out + c] = v;
-              exps[out + c] = Math.exp(v);
+              if (ownRows[ownRow + c - j * K] === 0) {
+                logs[out + c] = exceptionLog[x];
+                exps[out + c] = exceptionExp[x];
+              } else {
+                const v = base[from + cell] + ratios[x];
+                logs[out + c] = v;
+                exps[out + c] = Math.exp(v);
+              }
             }
             // Inside-segment cells whose context (the previous word) was seen followed by this word.
             if (q >= 0) {
               const pairStates = cache.pairStates!;
-              const pairRatios = cache.pairRatios!;
-              for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
+              const pairCells = cache.pairCells!;
+              const pairLog = cache.pairCellLog!;
+              const pairExp = cache.pairCellExp!;
+              const y0 = cache.pairStarts![q];
+              const y1 = cache.pairStarts![q + 1];
+              if (cache.pairReady![q] === 0) {
+                cache.pairReady![q] = 1;
+                const pairRatios = cache.pairRatios!;
+                for (let y = y0; y < y1; y++) {
+                  const j = pairStates[y];
+                  for (let r = insideOffsets[j], z = pairCells[y]; r < insideOffsets[j + 1]; r++, z++) {
+                    const v = base[from + insideRows[r] * K + j] + pairRatios[y];
+                    pairLog[z] = v;
+                    pairExp[z] = Math.exp(v);
+                  }
+                }
+              }
+              for (let y = y0; y < y1; y++) {
                 const j = pairStates[y];
                 const r0 = insideOffsets[j];
                 const r1 = insideOffsets[j + 1];
@@ -740,12 +811,10 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
                   touched++;
                   copyColumn(logs, exps, matrix + j * K, out + j * K, K);
                 }
-                const ratio = pairRatios[y];
-                for (let r = r0; r < r1; r++) {
+                for (let r = r0, z = pairCells[y]; r < r1; r++, z++) {
                   const i = insideRows[r];
-                  const v = base[from + i * K + j] + ratio;
-                  logs[out + j * K + i] = v;
-                  exps[out + j * K + i] = Math.exp(v);
+                  logs[out + j * K + i] = pairLog[z];
+                  exps[out + j * K + i] = pairExp[z];
                 }
               }
             }
