@@ -1,4 +1,5 @@
 import type { ScaledWorkspace } from "./forward-backward-scaled";
+import { maskKey } from "./viterbi-columns";
 
 /**
  * {@link computeScaledForwardBackward} (Rabiner 1989 §V-A, one scale factor per token) over a
@@ -14,6 +15,12 @@ import type { ScaledWorkspace } from "./forward-backward-scaled";
  *
  * β̂ is filled for tokens backwardFrom..T−1 only (span-confidence.ts reads β̂ only right after a
  * chunk, so the earliest chunk end is enough).
+ *
+ * With `allowed` (K×K, 0 where a transition is forbidden, as under the IOB2 constraints) the
+ * compiled forward pass leaves out the cells that are 0 there. The caller guarantees that every
+ * step's probability is exactly 0 in those cells; α̂ is finite and non-negative, so each left-out
+ * term is +0 and every partial sum is ≥ +0, and x + 0 = x for such x: the sums are unchanged,
+ * bit for bit. The backward pass reads every cell (β̂ is not bounded, and ∞·0 would be NaN).
  *
  * The generated source is built only from integers (K and array offsets), never from input data.
  */
@@ -33,9 +40,9 @@ type ColumnsScaled = (
 /** Largest K compiled per K. */
 export const COLUMNS_UNROLL_LIMIT = 24;
 
-const compiled = new Map<number, ColumnsScaled>();
+const compiled = new Map<string, ColumnsScaled>();
 
-function generate(K: number): string {
+function generate(K: number, allowed: Uint8Array | null): string {
   const lines: string[] = [];
   const sum = (terms: string[]) => terms.join(" + ");
   const range = (n: number) => Array.from({ length: n }, (_, x) => x);
@@ -48,7 +55,10 @@ function generate(K: number): string {
   lines.push("for (let t = 1; t < length; t++) {");
   lines.push(`  const cur = t * ${K};`);
   for (let j = 0; j < K; j++) lines.push(`  const c${j} = columns[cur + ${j}];`);
-  for (let j = 0; j < K; j++) lines.push(`  const v${j} = (${sum(range(K).map((i) => `a${i} * steps[c${j} + ${i}]`))}) * emissions[cur + ${j}];`);
+  for (let j = 0; j < K; j++) {
+    const rows = range(K).filter((i) => allowed === null || allowed[i * K + j] !== 0);
+    lines.push(`  const v${j} = (${rows.length === 0 ? "0" : sum(rows.map((i) => `a${i} * steps[c${j} + ${i}]`))}) * emissions[cur + ${j}];`);
+  }
   // The loop version adds v_j to a running sum starting from 0, in j order.
   lines.push(`  sum = ${sum(range(K).map((j) => `v${j}`))};`);
   lines.push("  if (!(sum > 0 && sum < Infinity)) return NaN;");
@@ -75,11 +85,12 @@ function generate(K: number): string {
   return lines.join("\n");
 }
 
-function compiledKernel(K: number): ColumnsScaled {
-  let kernel = compiled.get(K);
+function compiledKernel(K: number, allowed: Uint8Array | null): ColumnsScaled {
+  const key = `${K}:${maskKey(allowed)}`;
+  let kernel = compiled.get(key);
   if (kernel === undefined) {
-    kernel = new Function("length", "start", "steps", "columns", "emissions", "end", "alpha", "beta", "scale", "backwardFrom", generate(K)) as ColumnsScaled;
-    compiled.set(K, kernel);
+    kernel = new Function("length", "start", "steps", "columns", "emissions", "end", "alpha", "beta", "scale", "backwardFrom", generate(K, allowed)) as ColumnsScaled;
+    compiled.set(key, kernel);
   }
   return kernel;
 }
@@ -154,6 +165,7 @@ function loopKernel(
  * @param start K start probabilities; emissions T×K probabilities; end K end probabilities or null.
  * @param steps probabilities, read as steps[columns[t·K + j] + i] = P(j | i) at step t ≥ 1.
  * @param columns T×K column offsets (row 0 unused).
+ * @param allowed optional K×K mask: cells that are 0 there hold probability 0 at every step.
  */
 export function scaledForwardBackwardColumns(
   K: number,
@@ -165,6 +177,7 @@ export function scaledForwardBackwardColumns(
   end: Float64Array | null,
   workspace: ScaledWorkspace,
   backwardFrom: number,
+  allowed: Uint8Array | null = null,
 ): number {
   const name = "scaledForwardBackwardColumns";
   if (!Number.isInteger(K) || K < 1) throw new RangeError(`${name}: K=${K}, expected a positive integer`);
@@ -178,10 +191,11 @@ export function scaledForwardBackwardColumns(
     const c = columns[x];
     if (!(c >= 0 && c + K <= steps.length)) throw new RangeError(`${name}: column ${x % K} of step ${Math.floor(x / K)} starts at ${c}, outside the ${steps.length} probabilities`);
   }
+  if (allowed !== null && allowed.length !== K * K) throw new RangeError(`${name}: allowed has length ${allowed.length}, expected K×K=${K * K}`);
   const { alpha, beta, scale, weighted } = workspace;
   if (alpha.length < T * K || beta.length < T * K || scale.length < T + 1 || weighted.length < K) {
     throw new RangeError(`${name}: workspace holds ${Math.min(alpha.length, beta.length) / K} tokens, sequence has T=${T}`);
   }
   if (K > COLUMNS_UNROLL_LIMIT) return loopKernel(K, T, start, steps, columns, emissions, end, workspace, backwardFrom);
-  return compiledKernel(K)(T, start, steps, columns, emissions, end, alpha, beta, scale, backwardFrom);
+  return compiledKernel(K, allowed)(T, start, steps, columns, emissions, end, alpha, beta, scale, backwardFrom);
 }

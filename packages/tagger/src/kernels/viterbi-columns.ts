@@ -15,32 +15,58 @@ import { UNROLL_LIMIT } from "./viterbi-unrolled";
  * in local variables, argmaxes recovered in the backtrace by repeating the same sums); beyond it,
  * plain loops with stored backpointers.
  *
+ * With `allowed` (K×K, 0 where a transition is forbidden, as under the IOB2 constraints) the
+ * compiled recursion leaves out the cells that are 0 there. The caller guarantees that every
+ * step's score is −Infinity in those cells; Math.max(b, d + −Infinity) is b for every b that
+ * is not NaN (and the recursion's d are never +Infinity), so the maxima are unchanged, bit for bit.
+ * The backtrace still reads every cell.
+ *
  * The generated source is built only from integers (K and array offsets), never from input data.
  */
 type ColumnsForward = (length: number, start: Float64Array, transitions: Float64Array, columns: Int32Array, emissions: Float64Array, delta: Float64Array) => void;
 
-const compiled = new Map<number, ColumnsForward>();
+const compiled = new Map<string, ColumnsForward>();
+/** Key of each mask array seen (masks are per model, so few). */
+const maskKeys = new WeakMap<Uint8Array, string>();
 
-function generate(K: number): string {
+/** A compact key of a mask ("" for none), cached per array. */
+export function maskKey(allowed: Uint8Array | null): string {
+  if (allowed === null) return "";
+  let key = maskKeys.get(allowed);
+  if (key === undefined) {
+    key = Array.from(allowed, (a) => (a === 0 ? "0" : "1")).join("");
+    maskKeys.set(allowed, key);
+  }
+  return key;
+}
+
+function generate(K: number, allowed: Uint8Array | null): string {
   const lines: string[] = [];
+  const rowsOf = (j: number) => Array.from({ length: K }, (_, i) => i).filter((i) => allowed === null || allowed[i * K + j] !== 0);
   for (let j = 0; j < K; j++) lines.push(`let d${j} = start[${j}] + emissions[${j}]; delta[${j}] = d${j};`);
   lines.push("for (let t = 1; t < length; t++) {");
   lines.push(`  const base = t * ${K};`);
   for (let j = 0; j < K; j++) lines.push(`  const c${j} = columns[base + ${j}];`);
   for (let j = 0; j < K; j++) {
-    lines.push(`  let b${j} = d0 + transitions[c${j}];`);
-    for (let i = 1; i < K; i++) lines.push(`  b${j} = Math.max(b${j}, d${i} + transitions[c${j} + ${i}]);`);
+    const rows = rowsOf(j);
+    if (rows.length === 0) {
+      lines.push(`  const b${j} = -Infinity;`);
+      continue;
+    }
+    lines.push(`  let b${j} = d${rows[0]} + transitions[c${j} + ${rows[0]}];`);
+    for (const i of rows.slice(1)) lines.push(`  b${j} = Math.max(b${j}, d${i} + transitions[c${j} + ${i}]);`);
   }
   for (let j = 0; j < K; j++) lines.push(`  d${j} = b${j} + emissions[base + ${j}]; delta[base + ${j}] = d${j};`);
   lines.push("}");
   return lines.join("\n");
 }
 
-function compiledForward(K: number): ColumnsForward {
-  let kernel = compiled.get(K);
+function compiledForward(K: number, allowed: Uint8Array | null): ColumnsForward {
+  const key = `${K}:${maskKey(allowed)}`;
+  let kernel = compiled.get(key);
   if (kernel === undefined) {
-    kernel = new Function("length", "start", "transitions", "columns", "emissions", "delta", generate(K)) as ColumnsForward;
-    compiled.set(K, kernel);
+    kernel = new Function("length", "start", "transitions", "columns", "emissions", "delta", generate(K, allowed)) as ColumnsForward;
+    compiled.set(key, kernel);
   }
   return kernel;
 }
@@ -52,6 +78,7 @@ function compiledForward(K: number): ColumnsForward {
  * @param transitions log scores, read as transitions[columns[t·K + j] + i] for step t ≥ 1.
  * @param columns T×K column offsets (row 0 unused).
  * @param path receives the T states; workspace holds at least T×K numbers.
+ * @param allowed optional K×K mask: cells that are 0 there hold −Infinity at every step.
  * @returns log P(path, observations).
  */
 export function decodeViterbiColumns(
@@ -64,6 +91,7 @@ export function decodeViterbiColumns(
   end: Float64Array | null,
   path: Int32Array,
   workspace: ViterbiWorkspace,
+  allowed: Uint8Array | null = null,
 ): number {
   const name = "decodeViterbiColumns";
   if (!Number.isInteger(K) || K < 1) throw new RangeError(`${name}: K=${K}, expected a positive integer`);
@@ -77,10 +105,11 @@ export function decodeViterbiColumns(
     if (!(c >= 0 && c + K <= transitions.length)) throw new RangeError(`${name}: column ${x % K} of step ${Math.floor(x / K)} starts at ${c}, outside the ${transitions.length} scores`);
   }
   if (path.length < T) throw new RangeError(`${name}: path has length ${path.length}, expected T=${T}`);
+  if (allowed !== null && allowed.length !== K * K) throw new RangeError(`${name}: allowed has length ${allowed.length}, expected K×K=${K * K}`);
   const { delta, backpointers: bp } = workspace;
   if (delta.length < T * K || bp.length < T * K) throw new RangeError(`${name}: workspace holds ${delta.length / K} tokens, sequence has T=${T}`);
   if (K <= UNROLL_LIMIT) {
-    compiledForward(K)(T, start, transitions, columns, emissions, delta);
+    compiledForward(K, allowed)(T, start, transitions, columns, emissions, delta);
     let arg = bestLast(delta, T, K, end);
     const best = delta[(T - 1) * K + arg] + (end === null ? 0 : end[arg]);
     path[T - 1] = arg;

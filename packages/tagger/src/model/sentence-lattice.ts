@@ -75,6 +75,12 @@ export type SentenceLattice = {
   end: Float64Array | null;
   /** T×K column offsets into logSteps/steps (row 0 unused). */
   columns: Int32Array;
+  /**
+   * K×K, 0 where every step's score is −Infinity (probability 0): the IOB2 constraints' forbidden
+   * transitions, checked on every matrix the cache builds; null when unconstrained or when a
+   * matrix broke that (the kernels then read every cell).
+   */
+  allowed: Uint8Array | null;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
   /** Emission row of each token in the model cache (see Cache.wordRows). */
@@ -191,6 +197,8 @@ type Cache = {
   end: Float64Array | null;
   keep: Float64Array;
   lattice: SentenceLattice;
+  /** The IOB2 mask while every matrix built so far is −Infinity at its forbidden cells, else null. */
+  allowed: Uint8Array | null;
   /**
    * Sum of the numbers read ahead of use (see buildSentenceLattice), kept so that the reads are
    * not dropped as dead code; never read for a score.
@@ -221,6 +229,7 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     emissions: new Float64Array(capacity * K),
     end: null,
     columns: new Int32Array(capacity * K),
+    allowed: null,
     rows: new Int32Array(capacity),
     hashes: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
@@ -357,8 +366,19 @@ function createCache(model: TaggerModel): Cache {
       exceptionExp[x] = Math.exp(exceptionLog[x]);
     }
   }
+  // The forbidden cells stay −Infinity under a patch when its ratio is finite (−∞ + r = −∞).
+  const mask = model.constraints?.allowed ?? null;
+  let valid = mask !== null;
+  if (mask !== null) {
+    for (let x = 0; x < KK; x++) if (mask[x] === 0 && parameters.transitions[x] !== -Infinity) valid = false;
+    if (exceptionCells !== null) {
+      for (let x = 0; x < exceptionCells.length; x++) if (exceptionCells[x] < KK && mask[exceptionCells[x]] === 0 && !Number.isFinite(exceptionRatios![x])) valid = false;
+    }
+    if (pairRatios !== null) for (let y = 0; y < pairRatios.length; y++) if (!Number.isFinite(pairRatios[y])) valid = false;
+  }
   return {
     K,
+    allowed: valid ? mask : null,
     // Room for about as many word types as the vocabulary has symbols before the first growth.
     words: createWordTable(Math.min(MAX_WORD_ENTRIES, Math.max(1024, 2 * S))),
     wordRows: new Float64Array(Math.min(MAX_WORD_ENTRIES, Math.max(1024, S)) * (2 * K + 1)),
@@ -531,6 +551,10 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
     }
   }
   for (let x = 0; x < KK; x++) cache.previousExp[at + x] = Math.exp(folded[at + x]);
+  const mask = cache.allowed;
+  if (mask !== null) {
+    for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) if (mask[i * K + j] === 0 && folded[at + j * K + i] !== -Infinity) cache.allowed = null;
+  }
   cache.previousSlot[previous] = entry;
   return entry;
 }
@@ -681,6 +705,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     }
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
+  lattice.allowed = cache.allowed;
   if (T < 2) return lattice;
   // Room for this sentence's own patched steps; a new sentence number frees the pool's places.
   reservePatches(cache, 1 + cache.poolSize + T);
@@ -706,6 +731,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     }
     lattice.logSteps = cache.previousLog;
     lattice.steps = cache.previousExp;
+    lattice.allowed = cache.allowed;
     for (let t = 1; t < T; t++) for (let j = 0, c = t * K; j < K; j++) columns[c + j] = j * K;
     return lattice;
   }
@@ -836,6 +862,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
   }
   lattice.logSteps = cache.previousLog;
   lattice.steps = cache.previousExp;
+  lattice.allowed = cache.allowed;
   return lattice;
 }
 

@@ -155,7 +155,7 @@ function calibrated(model: TaggerModel, chunks: readonly { start: number; end: n
 function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
   const K = model.tags.length;
   const T = lattice.length;
-  decodeViterbiColumns(K, T, lattice.logStart, lattice.logSteps, lattice.columns, lattice.logEmissions, model.parameters.end, lattice.path, lattice.viterbi);
+  decodeViterbiColumns(K, T, lattice.logStart, lattice.logSteps, lattice.columns, lattice.logEmissions, model.parameters.end, lattice.path, lattice.viterbi, lattice.allowed);
   return lattice.path;
 }
 
@@ -228,7 +228,7 @@ function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSe
   const chunks = iob ? pathChunks(model, path, T, tags) : [];
   let from = T - 1;
   for (let c = 0; c < chunks.length; c++) if (chunks[c].end < from) from = chunks[c].end;
-  const logLikelihood = scaledForwardBackwardColumns(K, T, lattice.start, lattice.steps, lattice.columns, lattice.emissions, lattice.end, lattice.scaled, from);
+  const logLikelihood = scaledForwardBackwardColumns(K, T, lattice.start, lattice.steps, lattice.columns, lattice.emissions, lattice.end, lattice.scaled, from, lattice.allowed);
   if (Number.isNaN(logLikelihood)) return null;
   if (!iob) return { tags, chunks: [], logLikelihood };
   const confidences = calibrated(model, chunks, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.columns, lattice.emissions, lattice.end, lattice.scaled));
