@@ -1,5 +1,5 @@
 import type { ScaledWorkspace } from "./forward-backward-scaled";
-import { maskKey } from "./viterbi-columns";
+import { kernelKey } from "./viterbi-columns";
 
 /**
  * {@link computeScaledForwardBackward} (Rabiner 1989 §V-A, one scale factor per token) over a
@@ -41,6 +41,9 @@ type ColumnsScaled = (
 export const COLUMNS_UNROLL_LIMIT = 24;
 
 const compiled = new Map<string, ColumnsScaled>();
+/** The kernel of each mask array seen (a model keeps its mask), so a call builds no key string. */
+const byMask = new WeakMap<Uint8Array, ColumnsScaled>();
+const unmasked: ColumnsScaled[] = [];
 
 function generate(K: number, allowed: Uint8Array | null): string {
   const lines: string[] = [];
@@ -86,12 +89,16 @@ function generate(K: number, allowed: Uint8Array | null): string {
 }
 
 function compiledKernel(K: number, allowed: Uint8Array | null): ColumnsScaled {
-  const key = `${K}:${maskKey(allowed)}`;
-  let kernel = compiled.get(key);
+  let kernel = allowed === null ? unmasked[K] : byMask.get(allowed);
+  if (kernel !== undefined) return kernel;
+  const key = kernelKey(K, allowed);
+  kernel = compiled.get(key);
   if (kernel === undefined) {
     kernel = new Function("length", "start", "steps", "columns", "emissions", "end", "alpha", "beta", "scale", "backwardFrom", generate(K, allowed)) as ColumnsScaled;
     compiled.set(key, kernel);
   }
+  if (allowed === null) unmasked[K] = kernel;
+  else byMask.set(allowed, kernel);
   return kernel;
 }
 
@@ -165,7 +172,8 @@ function loopKernel(
  * @param start K start probabilities; emissions T×K probabilities; end K end probabilities or null.
  * @param steps probabilities, read as steps[columns[t·K + j] + i] = P(j | i) at step t ≥ 1.
  * @param columns T×K column offsets (row 0 unused).
- * @param allowed optional K×K mask: cells that are 0 there hold probability 0 at every step.
+ * @param allowed optional K×K mask: cells that are 0 there hold probability 0 at every step (the
+ *   compiled kernel is kept per mask array, which must not change afterwards).
  */
 export function scaledForwardBackwardColumns(
   K: number,

@@ -26,18 +26,13 @@ import { UNROLL_LIMIT } from "./viterbi-unrolled";
 type ColumnsForward = (length: number, start: Float64Array, transitions: Float64Array, columns: Int32Array, emissions: Float64Array, delta: Float64Array) => void;
 
 const compiled = new Map<string, ColumnsForward>();
-/** Key of each mask array seen (masks are per model, so few). */
-const maskKeys = new WeakMap<Uint8Array, string>();
+/** The kernel of each mask array seen (a model keeps its mask), so a call builds no key string. */
+const byMask = new WeakMap<Uint8Array, ColumnsForward>();
+const unmasked: ColumnsForward[] = [];
 
-/** A compact key of a mask ("" for none), cached per array. */
-export function maskKey(allowed: Uint8Array | null): string {
-  if (allowed === null) return "";
-  let key = maskKeys.get(allowed);
-  if (key === undefined) {
-    key = Array.from(allowed, (a) => (a === 0 ? "0" : "1")).join("");
-    maskKeys.set(allowed, key);
-  }
-  return key;
+/** A key of (K, mask) for sharing compiled kernels between equal masks. */
+export function kernelKey(K: number, allowed: Uint8Array | null): string {
+  return `${K}:${allowed === null ? "" : Array.from(allowed, (a) => (a === 0 ? "0" : "1")).join("")}`;
 }
 
 function generate(K: number, allowed: Uint8Array | null): string {
@@ -62,12 +57,16 @@ function generate(K: number, allowed: Uint8Array | null): string {
 }
 
 function compiledForward(K: number, allowed: Uint8Array | null): ColumnsForward {
-  const key = `${K}:${maskKey(allowed)}`;
-  let kernel = compiled.get(key);
+  let kernel = allowed === null ? unmasked[K] : byMask.get(allowed);
+  if (kernel !== undefined) return kernel;
+  const key = kernelKey(K, allowed);
+  kernel = compiled.get(key);
   if (kernel === undefined) {
     kernel = new Function("length", "start", "transitions", "columns", "emissions", "delta", generate(K, allowed)) as ColumnsForward;
     compiled.set(key, kernel);
   }
+  if (allowed === null) unmasked[K] = kernel;
+  else byMask.set(allowed, kernel);
   return kernel;
 }
 
@@ -78,7 +77,8 @@ function compiledForward(K: number, allowed: Uint8Array | null): ColumnsForward 
  * @param transitions log scores, read as transitions[columns[t·K + j] + i] for step t ≥ 1.
  * @param columns T×K column offsets (row 0 unused).
  * @param path receives the T states; workspace holds at least T×K numbers.
- * @param allowed optional K×K mask: cells that are 0 there hold −Infinity at every step.
+ * @param allowed optional K×K mask: cells that are 0 there hold −Infinity at every step (the
+ *   compiled kernel is kept per mask array, which must not change afterwards).
  * @returns log P(path, observations).
  */
 export function decodeViterbiColumns(

@@ -14,6 +14,7 @@ import { stepMatrix } from "../testing/lattice-steps";
 import { chunkConfidences } from "./span-confidence";
 import { tagSentence, trainTagger } from "./tagger";
 import { applyPlatt } from "../estimation/platt";
+import { encodeWords } from "../estimation/vocabulary";
 
 // The cached lattice must hold exactly the scores of the general builder (buildFirstOrderProblem,
 // itself checked against brute-force enumeration in tagger.test.ts), and tagSentence's fast path
@@ -45,6 +46,19 @@ describe("buildSentenceLattice", () => {
         const m = input.transitionIndex === null ? 0 : input.transitionIndex[t];
         expect(Array.from(stepMatrix(lattice.logSteps, lattice.columns, t, K))).toEqual(Array.from(params.transitions.subarray(m * K * K, (m + 1) * K * K)));
       }
+    }
+  });
+
+  it("reads every token as symbolOf does: known words, unknown words by class, sentence-initial words by their lower-case form", () => {
+    const { model } = trainTagger([...tinyDocuments, ...synthetic], { calibration: "none" });
+    const lower = model.vocabulary.words.filter((w) => /^[a-z][a-z0-9]*$/.test(w)).slice(0, 200);
+    expect(lower.length).toBeGreaterThan(10);
+    const capitalised = lower.map((w) => w[0].toUpperCase() + w.slice(1)).filter((w) => !model.vocabulary.index.has(w));
+    expect(capitalised.length).toBeGreaterThan(5);
+    const sentences = [...heldOut.slice(0, 40), ...capitalised.map((w, i) => [w, ...heldOut[i % 40].slice(1)]), ...capitalised.map((w, i) => [...heldOut[i % 40].slice(0, 2), w])];
+    for (const words of sentences) {
+      const lattice = buildSentenceLattice(model, words);
+      expect(Array.from(lattice.symbols.subarray(0, words.length)), words.join(" ")).toEqual(Array.from(encodeWords(model.vocabulary, words)));
     }
   });
 

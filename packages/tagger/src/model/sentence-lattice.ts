@@ -2,7 +2,7 @@ import { contextEmissionLogRatio } from "../estimation/context-emissions";
 import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
-import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
+import { classOf, suffixGroupOf, type Vocabulary } from "../estimation/vocabulary";
 import { addEmissionAdjustments, emissionRowIsOwn } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
@@ -96,6 +96,11 @@ type Cache = {
   K: number;
   /** (word, sentence-initial) → emission row. */
   words: WordTable;
+  /**
+   * The vocabulary's words → their ids, in a table of the same kind with every word stored as not
+   * sentence-initial, so a new word type's lookup reuses its token hash (the tokens after the first).
+   */
+  known: WordTable;
   /**
    * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
    * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
@@ -381,6 +386,7 @@ function createCache(model: TaggerModel): Cache {
     allowed: valid ? mask : null,
     // Room for about as many word types as the vocabulary has symbols before the first growth.
     words: createWordTable(Math.min(MAX_WORD_ENTRIES, Math.max(1024, 2 * S))),
+    known: knownWords(model.vocabulary),
     wordRows: new Float64Array(Math.min(MAX_WORD_ENTRIES, Math.max(1024, S)) * (2 * K + 1)),
     rowCount: 0,
     symbolRows: new Int32Array(S).fill(-1),
@@ -430,6 +436,27 @@ function createCache(model: TaggerModel): Cache {
   };
 }
 
+function knownWords(vocabulary: Vocabulary): WordTable {
+  const table = createWordTable(Math.max(1024, vocabulary.index.size));
+  for (const [word, id] of vocabulary.index) insertHashedWord(table, word, false, id, hashWord(word, false));
+  return table;
+}
+
+/**
+ * symbolOf (estimation/vocabulary.ts) through the cache's typed table of known words:
+ * `plainHash` is hashWord(word, false).
+ */
+function symbolOfHashed(vocabulary: Vocabulary, known: WordTable, word: string, first: boolean, plainHash: number): number {
+  const id = findHashedWord(known, word, false, plainHash);
+  if (id >= 0) return id;
+  if (first && vocabulary.lowercaseFirstWord) {
+    const lower = word.charAt(0).toLowerCase() + word.slice(1);
+    const found = findHashedWord(known, lower, false, hashWord(lower, false));
+    if (found >= 0) return found;
+  }
+  return vocabulary.words.length + classOf(vocabulary, word, first);
+}
+
 function cacheOf(model: TaggerModel): Cache {
   let cache = caches.get(model);
   if (cache === undefined) {
@@ -454,7 +481,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const found = findHashedWord(cache.words, word, first, hash);
   if (found >= 0) return found;
   const K = cache.K;
-  const symbol = symbolOf(model.vocabulary, word, first);
+  const symbol = symbolOfHashed(model.vocabulary, cache.known, word, first, first ? hashWord(word, false) : hash);
   let suffix = -1;
   let group = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
