@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { createSyntheticDocuments } from "../kernels/synthetic";
 import { buildFirstOrderProblem } from "./decode-input";
 import { buildSentenceLattice } from "./sentence-lattice";
+import { stepMatrix } from "../testing/lattice-steps";
 import { trainTagger } from "./tagger";
 
 // The lattice cache keeps word types, emission rows, suffix rows and a direct-mapped pool of
@@ -26,12 +27,11 @@ describe("buildSentenceLattice's caches over many sentences", () => {
       expect(same(lattice.logStart, params.start), label).toBe(true);
       for (let t = 1; t < T; t++) {
         const m = input.transitionIndex === null ? 0 : input.transitionIndex[t];
-        const own = lattice.stepIndex[t];
-        expect(same(lattice.logSteps.subarray(own * K * K, (own + 1) * K * K), params.transitions.subarray(m * K * K, (m + 1) * K * K)), `${label} step ${t}`).toBe(true);
+        const logs = stepMatrix(lattice.logSteps, lattice.columns, t, K);
+        expect(same(logs, params.transitions.subarray(m * K * K, (m + 1) * K * K)), `${label} step ${t}`).toBe(true);
         // The probabilities the forward-backward reads are the exps of those scores.
-        let exps = true;
-        for (let x = own * K * K; x < (own + 1) * K * K; x++) exps &&= Object.is(lattice.steps[x], Math.exp(lattice.logSteps[x]));
-        expect(exps, `${label} step ${t}: probabilities`).toBe(true);
+        const probabilities = stepMatrix(lattice.steps, lattice.columns, t, K);
+        expect(same(probabilities, logs.map(Math.exp)), `${label} step ${t}: probabilities`).toBe(true);
         steps++;
       }
     }

@@ -10,9 +10,11 @@ import { createRng } from "../util/random";
 import { buildFirstOrderProblem } from "./decode-input";
 import { decodeSentence, sentencePosteriors } from "./decode";
 import { buildSentenceLattice, fastLatticeApplies } from "./sentence-lattice";
+import { stepMatrix } from "../testing/lattice-steps";
 import { chunkConfidences } from "./span-confidence";
 import { tagSentence, trainTagger } from "./tagger";
 import { applyPlatt } from "../estimation/platt";
+import { encodeWords } from "../estimation/vocabulary";
 
 // The cached lattice must hold exactly the scores of the general builder (buildFirstOrderProblem,
 // itself checked against brute-force enumeration in tagger.test.ts), and tagSentence's fast path
@@ -42,9 +44,21 @@ describe("buildSentenceLattice", () => {
       expect(Array.from(lattice.logStart)).toEqual(Array.from(params.start));
       for (let t = 1; t < T; t++) {
         const m = input.transitionIndex === null ? 0 : input.transitionIndex[t];
-        const own = lattice.stepIndex[t];
-        expect(Array.from(lattice.logSteps.subarray(own * K * K, (own + 1) * K * K))).toEqual(Array.from(params.transitions.subarray(m * K * K, (m + 1) * K * K)));
+        expect(Array.from(stepMatrix(lattice.logSteps, lattice.columns, t, K))).toEqual(Array.from(params.transitions.subarray(m * K * K, (m + 1) * K * K)));
       }
+    }
+  });
+
+  it("reads every token as symbolOf does: known words, unknown words by class, sentence-initial words by their lower-case form", () => {
+    const { model } = trainTagger([...tinyDocuments, ...synthetic], { calibration: "none" });
+    const lower = model.vocabulary.words.filter((w) => /^[a-z][a-z0-9]*$/.test(w)).slice(0, 200);
+    expect(lower.length).toBeGreaterThan(10);
+    const capitalised = lower.map((w) => w[0].toUpperCase() + w.slice(1)).filter((w) => !model.vocabulary.index.has(w));
+    expect(capitalised.length).toBeGreaterThan(5);
+    const sentences = [...heldOut.slice(0, 40), ...capitalised.map((w, i) => [w, ...heldOut[i % 40].slice(1)]), ...capitalised.map((w, i) => [...heldOut[i % 40].slice(0, 2), w])];
+    for (const words of sentences) {
+      const lattice = buildSentenceLattice(model, words);
+      expect(Array.from(lattice.symbols.subarray(0, words.length)), words.join(" ")).toEqual(Array.from(encodeWords(model.vocabulary, words)));
     }
   });
 

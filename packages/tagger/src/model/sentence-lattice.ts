@@ -2,7 +2,7 @@ import { contextEmissionLogRatio } from "../estimation/context-emissions";
 import { findEntry } from "../estimation/count-table";
 import { prevWordRow } from "../estimation/estimate";
 import { interpolateWittenBell } from "../estimation/smoothing";
-import { suffixGroupOf, symbolOf } from "../estimation/vocabulary";
+import { classOf, suffixGroupOf, type Vocabulary } from "../estimation/vocabulary";
 import { addEmissionAdjustments, addTokenAdjustments, emissionRowIsOwn } from "../estimation/emission-adjustments";
 import { createScaledWorkspace, type ScaledWorkspace } from "../kernels/forward-backward-scaled";
 import { createViterbiWorkspace, type ViterbiWorkspace } from "../kernels/viterbi";
@@ -60,10 +60,11 @@ export type SentenceLattice = {
   logStart: Float64Array;
   start: Float64Array;
   /**
-   * Per-step transition scores: step t (t ≥ 1) reads the K×K matrix number stepIndex[t] of
-   * logSteps (log) and steps (probabilities). These arrays are the model cache's own (matrices
-   * per previous symbol, after a patch area where steps with word-specific cells are written), so
-   * a step costs no copy unless its word overrides cells.
+   * Per-step transition scores, column by column: the score of state i → state j at step t
+   * (t ≥ 1) is logSteps[columns[t·K + j] + i] (log) and steps[columns[t·K + j] + i]
+   * (probability). These arrays are the model cache's own (column-major matrices per previous
+   * symbol, after a patch area where the columns that a step's word overrides are written), so a
+   * step copies only the columns its word changes.
    */
   logSteps: Float64Array;
   steps: Float64Array;
@@ -72,8 +73,14 @@ export type SentenceLattice = {
   emissions: Float64Array;
   /** K end probabilities, or null. */
   end: Float64Array | null;
-  /** Matrix number of each step (entry 0 unused). */
-  stepIndex: Int32Array;
+  /** T×K column offsets into logSteps/steps (row 0 unused). */
+  columns: Int32Array;
+  /**
+   * K×K, 0 where every step's score is −Infinity (probability 0): the IOB2 constraints' forbidden
+   * transitions, checked on every matrix the cache builds; null when unconstrained or when a
+   * matrix broke that (the kernels then read every cell).
+   */
+  allowed: Uint8Array | null;
   /** Buffers of the scaled forward-backward over this lattice. */
   scaled: ScaledWorkspace;
   /** Emission row of each token in the model cache (see Cache.wordRows). */
@@ -90,6 +97,11 @@ type Cache = {
   /** (word, sentence-initial) → emission row. */
   words: WordTable;
   /**
+   * The vocabulary's words → their ids, in a table of the same kind with every word stored as not
+   * sentence-initial, so a new word type's lookup reuses its token hash (the tokens after the first).
+   */
+  known: WordTable;
+  /**
    * Emission rows shared by the word types that have the same scores: 2K + 1 numbers side by
    * side (one or two cache lines for a token): the symbol, K emission log scores, their K exps.
    * A symbol's own row serves every word read as that symbol without a suffix ratio; the others
@@ -105,11 +117,12 @@ type Cache = {
   /** Per previous slot, K×K: transition log scores before the context-emission ratio. */
   previousBase: Float64Array;
   /**
-   * The same with the context-free context-emission ratio added, and its exp: matrix 0 holds the
-   * plain transitions of models without previous-word or context tables, matrices 1..poolSize
-   * the pool of patched matrices (place h is matrix 1 + h), matrices poolSize + 1 + t this
-   * sentence's step t when its pool place is taken by a pair this sentence uses, and slot s is
-   * matrix patches + s.
+   * The same with the context-free context-emission ratio added, and its exp, as column-major
+   * K×K matrices (cell (i, j) of matrix m at m·K² + j·K + i): matrix 0 holds the plain
+   * transitions of models without previous-word or context tables, matrices 1..poolSize the pool
+   * of patched columns (place h is matrix 1 + h: the pair's patched columns at their own
+   * positions, the others unused), matrices poolSize + 1 + t this sentence's step t when its pool
+   * place is taken by a pair this sentence uses, and slot s is matrix patches + s.
    */
   previousLog: Float64Array;
   previousExp: Float64Array;
@@ -120,6 +133,11 @@ type Cache = {
    * of the sentence that last wrote the place (a place that sentence's steps read is not replaced).
    */
   poolKeys: Int32Array;
+  /** Per place and state j: 1 when the place's matrix holds the pair's patched column j. */
+  poolColumns: Uint8Array;
+  /** Per state j: the patch number that last copied column j (patchCount when it is patched now). */
+  columnMark: Int32Array;
+  patchCount: number;
   poolSize: number;
   sentence: number;
   /** Per symbol: 1 when some inside-segment context (a previous symbol) was seen followed by it. */
@@ -134,6 +152,11 @@ type Cache = {
   previousHasRow: Uint8Array;
   /** Per previous slot: 1 when any state has an inside-segment context row for that symbol. */
   previousAnyRow: Uint8Array;
+  /**
+   * Per previous slot and state i: 1 when row i of its transition scores is its own (the
+   * previous word has Witten–Bell counts there), 0 when it is the model's plain row.
+   */
+  previousOwnRow: Uint8Array;
   previousCount: number;
   /**
    * Per symbol, CSR of the segment-start cells (i·K + j, context i) and start states (K·K + j,
@@ -143,6 +166,18 @@ type Cache = {
   exceptionCells: Int32Array | null;
   exceptionRatios: Float64Array | null;
   /**
+   * Per exception (segment cells): its step score after a previous word whose row i is the plain
+   * one, transitions(i, j) + the exact ratio, log and exp, so most patched cells cost no exp.
+   */
+  exceptionLog: Float64Array | null;
+  exceptionExp: Float64Array | null;
+  /** Per exception: its cell's column j and column-major position j·K + i (segment cells; −1 for start states). */
+  exceptionColumns: Int32Array | null;
+  exceptionColumnCells: Int32Array | null;
+  /** Per state j, the states i with i → j inside a segment: insideRows[insideOffsets[j]..insideOffsets[j+1]). */
+  insideOffsets: Int32Array;
+  insideRows: Int32Array;
+  /**
    * Inside-segment contexts (previous symbol) seen followed by a symbol: (previous, symbol) →
    * group q, whose states and exact log ratios are pairStates/pairRatios[pairStarts[q]..pairStarts[q+1]).
    */
@@ -150,6 +185,16 @@ type Cache = {
   pairStarts: Int32Array | null;
   pairStates: Int32Array | null;
   pairRatios: Float64Array | null;
+  /**
+   * Per pair entry y (state j): its inside-segment cells' step scores (one per state i with
+   * i → j inside a segment, in insideRows order) at pairCellLog/pairCellExp[pairCells[y]..pairCells[y+1]),
+   * computed the first time the pair's step is patched (pairReady[q] = 1): they depend on the
+   * pair only.
+   */
+  pairCells: Int32Array | null;
+  pairCellLog: Float64Array | null;
+  pairCellExp: Float64Array | null;
+  pairReady: Uint8Array | null;
   /** Context-free parts: segment-start cells' log(u/(n+u)) (0 without a row), and the start's. */
   segmentZero: Float64Array;
   startZero: Float64Array;
@@ -157,6 +202,8 @@ type Cache = {
   end: Float64Array | null;
   keep: Float64Array;
   lattice: SentenceLattice;
+  /** The IOB2 mask while every matrix built so far is −Infinity at its forbidden cells, else null. */
+  allowed: Uint8Array | null;
   /**
    * Sum of the numbers read ahead of use (see buildSentenceLattice), kept so that the reads are
    * not dropped as dead code; never read for a score.
@@ -186,7 +233,8 @@ function createLattice(K: number, capacity: number): SentenceLattice {
     logEmissions: new Float64Array(capacity * K),
     emissions: new Float64Array(capacity * K),
     end: null,
-    stepIndex: new Int32Array(capacity),
+    columns: new Int32Array(capacity * K),
+    allowed: null,
     rows: new Int32Array(capacity),
     hashes: new Int32Array(capacity),
     scaled: createScaledWorkspace(K, capacity),
@@ -208,10 +256,25 @@ function createCache(model: TaggerModel): Cache {
   let exceptionOffsets: Int32Array | null = null;
   let exceptionCells: Int32Array | null = null;
   let exceptionRatios: Float64Array | null = null;
+  let exceptionColumns: Int32Array | null = null;
+  let exceptionColumnCells: Int32Array | null = null;
+  const insideOffsets = new Int32Array(K + 1);
+  const inside: number[] = [];
+  if (model.segmentStarts !== null) {
+    for (let j = 0; j < K; j++) {
+      for (let i = 0; i < K; i++) if (model.segmentStarts[i * K + j] !== 1) inside.push(i);
+      insideOffsets[j + 1] = inside.length;
+    }
+  }
+  const insideRows = Int32Array.from(inside);
   let pairIndex: PairTable | null = null;
   let pairStartsOut: Int32Array | null = null;
   let pairStates: Int32Array | null = null;
   let pairRatios: Float64Array | null = null;
+  let pairCells: Int32Array | null = null;
+  let pairReady: Uint8Array | null = null;
+  let exceptionLog: Float64Array | null = null;
+  let exceptionExp: Float64Array | null = null;
   const pairSymbols = new Uint8Array(S);
   const pairFilter = new Uint32Array(PAIR_FILTER_WORDS);
   const table = parameters.contextEmission;
@@ -241,6 +304,8 @@ function createCache(model: TaggerModel): Cache {
     for (let s = 0; s < S; s++) exceptionOffsets[s + 1] = exceptionOffsets[s] + sizes[s + 1];
     exceptionCells = new Int32Array(exceptionOffsets[S]);
     exceptionRatios = new Float64Array(exceptionOffsets[S]);
+    exceptionColumns = new Int32Array(exceptionOffsets[S]);
+    exceptionColumnCells = new Int32Array(exceptionOffsets[S]);
     const fill = exceptionOffsets.slice(0, S);
     // Inside-segment contexts: group the entries by (previous symbol, symbol).
     pairIndex = createPairTable();
@@ -257,6 +322,8 @@ function createCache(model: TaggerModel): Cache {
         const j = row % K;
         const x = fill[symbol]++;
         exceptionCells[x] = context === K ? KK + j : context * K + j;
+        exceptionColumns[x] = context === K ? -1 : j;
+        exceptionColumnCells[x] = context === K ? -1 : j * K + context;
         exceptionRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
       }
     }
@@ -293,11 +360,33 @@ function createCache(model: TaggerModel): Cache {
       pairRatios[x] = contextEmissionLogRatio(table, S, K, context, j, symbol, parameters.emissions[symbol * K + j]);
     }
     pairStartsOut = pairStarts;
+    pairCells = new Int32Array(pairStates.length + 1);
+    for (let y = 0; y < pairStates.length; y++) pairCells[y + 1] = pairCells[y] + insideOffsets[pairStates[y] + 1] - insideOffsets[pairStates[y]];
+    pairReady = new Uint8Array(pairSizes.length);
+    exceptionLog = new Float64Array(exceptionCells.length);
+    exceptionExp = new Float64Array(exceptionCells.length);
+    for (let x = 0; x < exceptionCells.length; x++) {
+      if (exceptionCells[x] >= KK) continue;
+      exceptionLog[x] = parameters.transitions[exceptionCells[x]] + exceptionRatios[x];
+      exceptionExp[x] = Math.exp(exceptionLog[x]);
+    }
+  }
+  // The forbidden cells stay −Infinity under a patch when its ratio is finite (−∞ + r = −∞).
+  const mask = model.constraints?.allowed ?? null;
+  let valid = mask !== null;
+  if (mask !== null) {
+    for (let x = 0; x < KK; x++) if (mask[x] === 0 && parameters.transitions[x] !== -Infinity) valid = false;
+    if (exceptionCells !== null) {
+      for (let x = 0; x < exceptionCells.length; x++) if (exceptionCells[x] < KK && mask[exceptionCells[x]] === 0 && !Number.isFinite(exceptionRatios![x])) valid = false;
+    }
+    if (pairRatios !== null) for (let y = 0; y < pairRatios.length; y++) if (!Number.isFinite(pairRatios[y])) valid = false;
   }
   return {
     K,
+    allowed: valid ? mask : null,
     // Room for about as many word types as the vocabulary has symbols before the first growth.
     words: createWordTable(Math.min(MAX_WORD_ENTRIES, Math.max(1024, 2 * S))),
+    known: knownWords(model.vocabulary),
     wordRows: new Float64Array(Math.min(MAX_WORD_ENTRIES, Math.max(1024, S)) * (2 * K + 1)),
     rowCount: 0,
     symbolRows: new Int32Array(S).fill(-1),
@@ -308,20 +397,34 @@ function createCache(model: TaggerModel): Cache {
     previousExp: new Float64Array((1 + poolSizeFor(K) + 128) * KK),
     patches: 1 + poolSizeFor(K) + 64,
     poolKeys: new Int32Array(4 * poolSizeFor(K)),
+    poolColumns: new Uint8Array(K * poolSizeFor(K)),
+    columnMark: new Int32Array(K),
+    patchCount: 0,
     poolSize: poolSizeFor(K),
     sentence: 0,
     pairSymbols,
     pairFilter,
     previousHasRow: new Uint8Array(64 * K),
     previousAnyRow: new Uint8Array(64),
+    previousOwnRow: new Uint8Array(64 * K),
     previousCount: 0,
     exceptionOffsets,
     exceptionCells,
     exceptionRatios,
+    exceptionColumns,
+    exceptionColumnCells,
+    insideOffsets,
+    insideRows,
     pairIndex,
     pairStarts: pairStartsOut,
     pairStates,
     pairRatios,
+    pairCells,
+    pairCellLog: pairCells === null ? null : new Float64Array(pairCells[pairCells.length - 1]),
+    pairCellExp: pairCells === null ? null : new Float64Array(pairCells[pairCells.length - 1]),
+    pairReady,
+    exceptionLog,
+    exceptionExp,
     segmentZero,
     startZero,
     end,
@@ -331,6 +434,27 @@ function createCache(model: TaggerModel): Cache {
     suffix: model.suffix === null ? null : createSuffixTrie(model.suffix),
     conditional: new Float64Array(K),
   };
+}
+
+function knownWords(vocabulary: Vocabulary): WordTable {
+  const table = createWordTable(Math.max(1024, vocabulary.index.size));
+  for (const [word, id] of vocabulary.index) insertHashedWord(table, word, false, id, hashWord(word, false));
+  return table;
+}
+
+/**
+ * symbolOf (estimation/vocabulary.ts) through the cache's typed table of known words:
+ * `plainHash` is hashWord(word, false).
+ */
+function symbolOfHashed(vocabulary: Vocabulary, known: WordTable, word: string, first: boolean, plainHash: number): number {
+  const id = findHashedWord(known, word, false, plainHash);
+  if (id >= 0) return id;
+  if (first && vocabulary.lowercaseFirstWord) {
+    const lower = word.charAt(0).toLowerCase() + word.slice(1);
+    const found = findHashedWord(known, lower, false, hashWord(lower, false));
+    if (found >= 0) return found;
+  }
+  return vocabulary.words.length + classOf(vocabulary, word, first);
 }
 
 function cacheOf(model: TaggerModel): Cache {
@@ -357,7 +481,7 @@ function wordEntry(model: TaggerModel, cache: Cache, word: string, first: boolea
   const found = findHashedWord(cache.words, word, first, hash);
   if (found >= 0) return found;
   const K = cache.K;
-  const symbol = symbolOf(model.vocabulary, word, first);
+  const symbol = symbolOfHashed(model.vocabulary, cache.known, word, first, first ? hashWord(word, false) : hash);
   let suffix = -1;
   let group = -1;
   if (symbol >= model.vocabulary.words.length && cache.suffix !== null) {
@@ -405,6 +529,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   cache.previousLog = grow(cache.previousLog, (cache.patches + entry + 1) * KK);
   cache.previousExp = grow(cache.previousExp, (cache.patches + entry + 1) * KK);
   cache.previousHasRow = grow(cache.previousHasRow, (entry + 1) * K);
+  cache.previousOwnRow = grow(cache.previousOwnRow, (entry + 1) * K);
   cache.previousAnyRow = grow(cache.previousAnyRow, entry + 1);
   cache.previousAnyRow[entry] = 0;
   const { parameters } = model;
@@ -421,6 +546,7 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   for (let i = 0; i < K; i++) {
     const out = out0 + i * K;
     const row = table === null ? -1 : prevWordRow(table, previous * K + i);
+    cache.previousOwnRow[entry * K + i] = row < 0 ? 0 : 1;
     if (table === null || row < 0) {
       for (let j = 0; j < K; j++) logs[out + j] = base[i * K + j];
     } else {
@@ -432,7 +558,8 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
   }
   const folded = cache.previousLog;
   const at = (cache.patches + entry) * KK;
-  for (let x = 0; x < KK; x++) folded[at + x] = logs[out0 + x];
+  // Column-major: cell (i, j) at j·K + i.
+  for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) folded[at + j * K + i] = logs[out0 + i * K + j];
   const hasRow = cache.previousHasRow;
   hasRow.fill(0, entry * K, entry * K + K);
   if (contextTable !== null && segmentStarts !== null) {
@@ -447,10 +574,14 @@ function previousEntry(model: TaggerModel, cache: Cache, previous: number): numb
         const u = contextTable.distinct.values[found];
         wordZero = Math.log((0 + u) / (n + u));
       }
-      for (let i = 0; i < K; i++) folded[at + i * K + j] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
+      for (let i = 0; i < K; i++) folded[at + j * K + i] += segmentStarts[i * K + j] === 1 ? cache.segmentZero[i * K + j] : wordZero;
     }
   }
   for (let x = 0; x < KK; x++) cache.previousExp[at + x] = Math.exp(folded[at + x]);
+  const mask = cache.allowed;
+  if (mask !== null) {
+    for (let i = 0; i < K; i++) for (let j = 0; j < K; j++) if (mask[i * K + j] === 0 && folded[at + j * K + i] !== -Infinity) cache.allowed = null;
+  }
   cache.previousSlot[previous] = entry;
   return entry;
 }
@@ -517,6 +648,14 @@ function reservePatches(cache: Cache, length: number): void {
   cache.previousLog = log;
   cache.previousExp = exp;
   cache.patches = patches;
+}
+
+/** Copies one column (K numbers) of the log and the probability matrices. */
+function copyColumn(logs: Float64Array, exps: Float64Array, from: number, to: number, K: number): void {
+  for (let i = 0; i < K; i++) {
+    logs[to + i] = logs[from + i];
+    exps[to + i] = exps[from + i];
+  }
 }
 
 /**
@@ -595,6 +734,7 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     }
   }
   for (let j = 0; j < K; j++) start[j] = Math.exp(logStart[j]);
+  lattice.allowed = cache.allowed;
   if (T < 2) return lattice;
   // Room for this sentence's own patched steps; a new sentence number frees the pool's places.
   reservePatches(cache, 1 + cache.poolSize + T);
@@ -609,87 +749,149 @@ export function buildSentenceLattice(model: TaggerModel, words: readonly string[
     cache.previousSlot.fill(-1);
     cache.previousCount = 0;
   }
-  const stepIndex = lattice.stepIndex;
+  const columns = lattice.columns;
   if (parameters.prevWord === null && !withContext) {
-    // One matrix for every step: the base transitions, in patch matrix 0.
-    for (let x = 0; x < KK; x++) {
-      cache.previousLog[x] = parameters.transitions[x];
-      cache.previousExp[x] = Math.exp(parameters.transitions[x]);
+    // One matrix for every step: the base transitions, in patch matrix 0 (column-major).
+    for (let i = 0; i < K; i++) {
+      for (let j = 0; j < K; j++) {
+        cache.previousLog[j * K + i] = parameters.transitions[i * K + j];
+        cache.previousExp[j * K + i] = Math.exp(parameters.transitions[i * K + j]);
+      }
     }
     lattice.logSteps = cache.previousLog;
     lattice.steps = cache.previousExp;
-    for (let t = 1; t < T; t++) stepIndex[t] = 0;
+    lattice.allowed = cache.allowed;
+    for (let t = 1; t < T; t++) for (let j = 0, c = t * K; j < K; j++) columns[c + j] = j * K;
     return lattice;
   }
+  const poolColumns = cache.poolColumns;
+  const mark = cache.columnMark;
+  const insideOffsets = cache.insideOffsets;
+  const insideRows = cache.insideRows;
+  const columnCells = cache.exceptionColumnCells!;
+  const exceptionColumns = cache.exceptionColumns!;
+  const exceptionLog = cache.exceptionLog!;
+  const exceptionExp = cache.exceptionExp!;
   for (let t = 1; t < T; t++) {
     const previous = symbols[t - 1];
     const slot = previousEntry(model, cache, previous);
-    const matrix = cache.patches + slot;
-    stepIndex[t] = matrix;
-    if (!withContext) continue;
-    const symbol = symbols[t];
-    const first = offsets[symbol];
-    const last = offsets[symbol + 1];
-    // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
-    const hasSegmentCells = first < last && cells[first] < KK;
-    const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
-    if (!hasSegmentCells && !maybePair) continue;
-    const place = 4 * poolPlace(previous, symbol, poolMask);
-    if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
-      const pooled = poolKeys[place + 2];
-      if (pooled > 0) {
-        stepIndex[t] = pooled;
-        // This sentence reads the matrix now: keep the place until the next sentence.
-        poolKeys[place + 3] = cache.sentence;
+    const matrix = (cache.patches + slot) * KK;
+    const at = t * K;
+    if (withContext) {
+      const symbol = symbols[t];
+      const first = offsets[symbol];
+      const last = offsets[symbol + 1];
+      // Start cells come last in a symbol's list (cell ≥ K²), so a first cell < K² means segment cells.
+      const hasSegmentCells = first < last && cells[first] < KK;
+      const maybePair = cache.previousAnyRow[slot] !== 0 && cache.pairSymbols[symbol] !== 0 && inFilter(cache.pairFilter, previous, symbol);
+      if (hasSegmentCells || maybePair) {
+        const place = 4 * poolPlace(previous, symbol, poolMask);
+        const h = place >> 2;
+        if (poolKeys[place] === previous + 1 && poolKeys[place + 1] === symbol) {
+          const pooled = poolKeys[place + 2];
+          if (pooled > 0) {
+            // This sentence reads the matrix now: keep the place until the next sentence.
+            poolKeys[place + 3] = cache.sentence;
+            const own = pooled * KK;
+            for (let j = 0, f = h * K; j < K; j++) columns[at + j] = (poolColumns[f + j] !== 0 ? own : matrix) + j * K;
+            continue;
+          }
+        } else {
+          // The place is free unless this sentence reads its matrix.
+          const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
+          const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
+          if (hasSegmentCells || q >= 0) {
+            // This word overrides cells: the columns it touches are copied from the slot's matrix
+            // into the pair's pool matrix (or this step's own matrix when the place is taken) and
+            // patched there; the step reads its other columns from the slot's matrix.
+            const patched = free ? 1 + h : 1 + cache.poolSize + t;
+            const out = patched * KK;
+            const stamp = ++cache.patchCount;
+            const logs = cache.previousLog;
+            const exps = cache.previousExp;
+            const base = cache.previousBase;
+            const from = slot * KK;
+            let touched = 0;
+            // Re-read after previousEntry, which may have grown the array.
+            const ownRows = cache.previousOwnRow;
+            const ownRow = slot * K;
+            // Segment-start cells where this word was seen after state i (exact ratio precomputed,
+            // and the whole score too unless the previous word has its own row i).
+            for (let x = first; x < last; x++) {
+              const cell = cells[x];
+              if (cell >= KK) continue;
+              const c = columnCells[x];
+              const j = exceptionColumns[x];
+              if (mark[j] !== stamp) {
+                mark[j] = stamp;
+                touched++;
+                copyColumn(logs, exps, matrix + j * K, out + j * K, K);
+              }
+              if (ownRows[ownRow + c - j * K] === 0) {
+                logs[out + c] = exceptionLog[x];
+                exps[out + c] = exceptionExp[x];
+              } else {
+                const v = base[from + cell] + ratios[x];
+                logs[out + c] = v;
+                exps[out + c] = Math.exp(v);
+              }
+            }
+            // Inside-segment cells whose context (the previous word) was seen followed by this word.
+            if (q >= 0) {
+              const pairStates = cache.pairStates!;
+              const pairCells = cache.pairCells!;
+              const pairLog = cache.pairCellLog!;
+              const pairExp = cache.pairCellExp!;
+              const y0 = cache.pairStarts![q];
+              const y1 = cache.pairStarts![q + 1];
+              if (cache.pairReady![q] === 0) {
+                cache.pairReady![q] = 1;
+                const pairRatios = cache.pairRatios!;
+                for (let y = y0; y < y1; y++) {
+                  const j = pairStates[y];
+                  for (let r = insideOffsets[j], z = pairCells[y]; r < insideOffsets[j + 1]; r++, z++) {
+                    const v = base[from + insideRows[r] * K + j] + pairRatios[y];
+                    pairLog[z] = v;
+                    pairExp[z] = Math.exp(v);
+                  }
+                }
+              }
+              for (let y = y0; y < y1; y++) {
+                const j = pairStates[y];
+                const r0 = insideOffsets[j];
+                const r1 = insideOffsets[j + 1];
+                if (r0 === r1) continue;
+                if (mark[j] !== stamp) {
+                  mark[j] = stamp;
+                  touched++;
+                  copyColumn(logs, exps, matrix + j * K, out + j * K, K);
+                }
+                for (let r = r0, z = pairCells[y]; r < r1; r++, z++) {
+                  const i = insideRows[r];
+                  logs[out + j * K + i] = pairLog[z];
+                  exps[out + j * K + i] = pairExp[z];
+                }
+              }
+            }
+            if (touched > 0) {
+              if (free) {
+                setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
+                for (let j = 0, f = h * K; j < K; j++) poolColumns[f + j] = mark[j] === stamp ? 1 : 0;
+              }
+              for (let j = 0; j < K; j++) columns[at + j] = (mark[j] === stamp ? out : matrix) + j * K;
+              continue;
+            }
+          }
+          // The pair overrides no cell: remember that, and the slot's matrix serves.
+          if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
+        }
       }
-      continue;
     }
-    // The place is free unless this sentence reads its matrix.
-    const free = poolKeys[place + 2] === 0 || poolKeys[place + 3] !== cache.sentence;
-    const q = maybePair ? getPair(cache.pairIndex!, previous, symbol, -1) : -1;
-    if (!hasSegmentCells && q < 0) {
-      if (free) setPlace(poolKeys, place, previous, symbol, 0, cache.sentence);
-      continue;
-    }
-    // This word overrides cells: patch a copy of the slot's matrix into the pair's pool matrix,
-    // or into this step's own matrix when the place is taken.
-    const patched = free ? 1 + place / 4 : 1 + cache.poolSize + t;
-    if (free) setPlace(poolKeys, place, previous, symbol, patched, cache.sentence);
-    const logs = cache.previousLog;
-    const exps = cache.previousExp;
-    const out = patched * KK;
-    const src = matrix * KK;
-    // Native block copies (memmove), not K² element loads and stores.
-    logs.copyWithin(out, src, src + KK);
-    exps.copyWithin(out, src, src + KK);
-    stepIndex[t] = patched;
-    const base = cache.previousBase;
-    const from = slot * KK;
-    // Segment-start cells where this word was seen after state i (exact ratio precomputed).
-    for (let x = first; x < last; x++) {
-      const cell = cells[x];
-      if (cell >= KK) continue;
-      const v = base[from + cell] + ratios[x];
-      logs[out + cell] = v;
-      exps[out + cell] = Math.exp(v);
-    }
-    // Inside-segment cells whose context (the previous word) was seen followed by this word.
-    if (q < 0) continue;
-    const pairStates = cache.pairStates!;
-    const pairRatios = cache.pairRatios!;
-    for (let y = cache.pairStarts![q]; y < cache.pairStarts![q + 1]; y++) {
-      const j = pairStates[y];
-      const ratio = pairRatios[y];
-      for (let i = 0; i < K; i++) {
-        if (segmentStarts[i * K + j] === 1) continue;
-        const v = base[from + i * K + j] + ratio;
-        logs[out + i * K + j] = v;
-        exps[out + i * K + j] = Math.exp(v);
-      }
-    }
+    for (let j = 0; j < K; j++) columns[at + j] = matrix + j * K;
   }
   lattice.logSteps = cache.previousLog;
   lattice.steps = cache.previousExp;
+  lattice.allowed = cache.allowed;
   return lattice;
 }
 

@@ -76,7 +76,8 @@ function statesOf(model: TaggerModel, type: string): { begin: number; inside: nu
  * the constrained sum of Culotta & McCallum (2004) split at the chunk's edges; each factor is
  * divided by its ĉ_t as it is multiplied in, so nothing underflows.
  *
- * @param start, steps, stepIndex, emissions, end the lattice as given to the kernel (probabilities).
+ * @param start, steps, columns, emissions, end the lattice as given to the kernel (probabilities;
+ *   P(j | i) at step t is steps[columns[t·K + j] + i], see forward-backward-scaled-columns.ts).
  */
 export function chunkConfidencesScaled(
   model: TaggerModel,
@@ -84,13 +85,12 @@ export function chunkConfidencesScaled(
   T: number,
   start: Float64Array,
   steps: Float64Array,
-  stepIndex: Int32Array,
+  columns: Int32Array,
   emissions: Float64Array,
   end: Float64Array | null,
   lattice: { alpha: Float64Array; beta: Float64Array; scale: Float64Array },
 ): number[] {
   const K = model.tags.length;
-  const KK = K * K;
   const { alpha, beta, scale } = lattice;
   const out = new Array<number>(chunks.length);
   for (let c = 0; c < chunks.length; c++) {
@@ -106,20 +106,19 @@ export function chunkConfidencesScaled(
     if (a === 0) v = start[begin] * emissions[begin];
     else {
       v = 0;
-      const m = stepIndex[a] * KK + begin;
-      for (let i = 0, p = (a - 1) * K; i < K; i++, p++) v += alpha[p] * steps[m + i * K];
+      const m = columns[a * K + begin];
+      for (let i = 0, p = (a - 1) * K; i < K; i++, p++) v += alpha[p] * steps[m + i];
       v *= emissions[a * K + begin];
     }
     v /= scale[a];
     let last = begin;
     for (let t = a + 1; t < b; t++) {
-      v *= (steps[stepIndex[t] * KK + last * K + inside] * emissions[t * K + inside]) / scale[t];
+      v *= (steps[columns[t * K + inside] + last] * emissions[t * K + inside]) / scale[t];
       last = inside;
     }
     if (b < T) {
       let tail = 0;
-      const m = stepIndex[b] * KK + last * K;
-      for (let k = 0; k < K; k++) if (k !== inside) tail += steps[m + k] * emissions[b * K + k] * beta[b * K + k];
+      for (let k = 0; k < K; k++) if (k !== inside) tail += steps[columns[b * K + k] + last] * emissions[b * K + k] * beta[b * K + k];
       v *= tail / scale[b];
     } else {
       v *= (end === null ? 1 : end[last]) / scale[T];

@@ -6,10 +6,8 @@ import { createRng, type Rng } from "../util/random";
 import { refineWithUnlabelled, type IterationReport } from "../semi-supervised/semi-supervised";
 import { chunkConfidences, chunkConfidencesScaled } from "./span-confidence";
 import { buildSentenceLattice, fastLatticeApplies, type SentenceLattice } from "./sentence-lattice";
-import { computeScaledForwardBackward } from "../kernels/forward-backward-scaled";
-import { SCALED_UNROLL_LIMIT, scaledForwardBackwardFrom } from "../kernels/forward-backward-scaled-unrolled";
-import { decodeViterbiJs } from "../kernels/viterbi";
-import { checkShapes } from "../kernels/hmm-params";
+import { scaledForwardBackwardColumns } from "../kernels/forward-backward-scaled-columns";
+import { decodeViterbiColumns } from "../kernels/viterbi-columns";
 import { assembleModel, type TaggerModel } from "./tagger-model";
 import { prepareTrainingData } from "../estimation/training-data";
 import { resolveTrainingConfig, type TrainingConfig } from "../estimation/training-config";
@@ -161,16 +159,15 @@ function calibrated(model: TaggerModel, chunks: readonly { start: number; end: n
 
 /**
  * Viterbi over a cached sentence lattice: the same scores and recursion as decodeSentence, on the
- * JavaScript kernel (the WebAssembly one would copy the cache's whole matrix array per sentence),
- * into the lattice's reused buffers: the path is lattice.path[0..T), valid until the next build.
+ * JavaScript kernel that reads the lattice's steps column by column (the WebAssembly one would
+ * copy the cache's whole matrix array per sentence), into the lattice's reused buffers: the path
+ * is lattice.path[0..T), valid until the next build.
  */
 function decodeLattice(model: TaggerModel, lattice: SentenceLattice): Int32Array {
   const K = model.tags.length;
   const T = lattice.length;
-  const params = { states: K, start: lattice.logStart, transitions: T > 1 ? lattice.logSteps : model.parameters.transitions.subarray(0, K * K), end: model.parameters.end };
-  const input = { length: T, scores: lattice.logEmissions.subarray(0, T * K), rows: null, transitionIndex: T > 1 ? lattice.stepIndex : null };
-  checkShapes(params, input, "decodeLattice");
-  return decodeViterbiJs(params, input, lattice.path, lattice.viterbi).path;
+  decodeViterbiColumns(K, T, lattice.logStart, lattice.logSteps, lattice.columns, lattice.logEmissions, model.parameters.end, lattice.path, lattice.viterbi, lattice.allowed);
+  return lattice.path;
 }
 
 /** Per state of an iob model: 0 for O, 1 for B-X, 2 for I-X, and X (one string per type). */
@@ -242,13 +239,10 @@ function tagSentenceFast(model: TaggerModel, words: readonly string[]): TaggedSe
   const chunks = iob ? pathChunks(model, path, T, tags) : [];
   let from = T - 1;
   for (let c = 0; c < chunks.length; c++) if (chunks[c].end < from) from = chunks[c].end;
-  const logLikelihood =
-    K <= SCALED_UNROLL_LIMIT
-      ? scaledForwardBackwardFrom(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled, from)
-      : computeScaledForwardBackward(K, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled);
+  const logLikelihood = scaledForwardBackwardColumns(K, T, lattice.start, lattice.steps, lattice.columns, lattice.emissions, lattice.end, lattice.scaled, from, lattice.allowed);
   if (Number.isNaN(logLikelihood)) return null;
   if (!iob) return { tags, chunks: [], logLikelihood };
-  const confidences = calibrated(model, chunks, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.stepIndex, lattice.emissions, lattice.end, lattice.scaled));
+  const confidences = calibrated(model, chunks, chunkConfidencesScaled(model, chunks, T, lattice.start, lattice.steps, lattice.columns, lattice.emissions, lattice.end, lattice.scaled));
   return { tags, chunks: chunks.map((c, i) => ({ type: c.type, start: c.start, end: c.end, confidence: confidences[i] })), logLikelihood };
 }
 
