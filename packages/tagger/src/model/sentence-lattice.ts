@@ -46,8 +46,8 @@ const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PR
  * (2^22 numbers rather than 2^18, when a place was a whole matrix copy) keeps more of the bench's
  * bigrams (simulated on the bench's text: 0.60 of the patched steps find their pair with 16,384
  * places, 0.72 with 65,536, against 0.40 with 1,024 and 0.43 measured with the 2,048 before;
- * K = 9 now has 32,768 places),
- * and measured 1.096 times as fast on the bench pass. A pair that overrides no cell is remembered there too.
+ * K = 9 now has up to 32,768 places), and measured 1.07 times as fast on the bench pass. A pair
+ * that overrides no cell is remembered there too.
  */
 const MAX_POOL_NUMBERS = 1 << 22;
 /**
