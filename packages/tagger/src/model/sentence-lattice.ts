@@ -45,7 +45,7 @@ const previousLimit = (K: number): number => Math.max(1 << 13, Math.floor(MAX_PR
  * columns its pair patches (mostly one), so only those are ever read or written: the larger pool
  * (2^22 numbers rather than 2^18, when a place was a whole matrix copy) keeps more of the bench's
  * bigrams (simulated on the bench's text: 0.60 of the patched steps find their pair with 16,384
- * places, 0.72 with 65,536, against 0.40 with 1,024 and 0.43 measured with the 2,048 before;
+ * places, 0.72 with 65,536, against 0.40 with 1,024 (the old pool had 2,048);
  * K = 9 now has up to 32,768 places), and measured 1.07 times as fast on the bench pass. A pair
  * that overrides no cell is remembered there too.
  */
