@@ -98,4 +98,4 @@ for (let r = 0; r < rounds; r++) {
   );
 }
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
-console.log(`median new/old of ${rounds} rounds: bench pass ${median(ratios.bench).toFixed(3)}, again ${median(ratios.again).toFixed(3)}`);
+if (rounds > 0) console.log(`median new/old of ${rounds} rounds: bench pass ${median(ratios.bench).toFixed(3)}, again ${median(ratios.again).toFixed(3)}`);
