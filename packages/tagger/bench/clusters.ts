@@ -115,15 +115,26 @@ function f1(config: Partial<TrainingConfig>, unlabelled: string[][][], train: Co
   return evaluateModel(trained(config, unlabelled, train), test).entities!.overall.f1;
 }
 
-export function clusterReport(directory: string, variants = VARIANTS.map((v) => v.name), configurations = CLUSTER_CONFIGURATIONS): ClusterRow[] {
+/**
+ * One variant's texts, the same in every report: the 5 folds of the train+dev articles (for CV),
+ * train+dev as training files, the test articles and their gold tags.
+ */
+export function variantTexts(directory: string, variant: (typeof VARIANTS)[number]): { plan: ReturnType<typeof planFolds>; train: ColumnDocument[]; test: ColumnDocument[]; gold: string[][][] } {
   const read = (file: string) => parseColumnText(readFileSync(join(directory, file), "utf8"), { file }).documents;
+  const articles = variant.transform(wikigoldTrainDevArticles(directory), 11);
+  const test = variant.transform(wikigoldTestArticles(directory), 13);
+  return {
+    plan: planFolds(articles, 5),
+    train: variant.transform([...read("train.bio"), ...read("dev.bio")], 12),
+    test,
+    gold: test.map((d) => d.sentences.map((s) => [...s.tags])),
+  };
+}
+
+export function clusterReport(directory: string, variants = VARIANTS.map((v) => v.name), configurations = CLUSTER_CONFIGURATIONS): ClusterRow[] {
   const rows: ClusterRow[] = [];
   for (const variant of VARIANTS.filter((v) => variants.includes(v.name))) {
-    const articles = variant.transform(wikigoldTrainDevArticles(directory), 11);
-    const plan = planFolds(articles, 5);
-    const train = variant.transform([...read("train.bio"), ...read("dev.bio")], 12);
-    const test = variant.transform(wikigoldTestArticles(directory), 13);
-    const gold = test.map((d) => d.sentences.map((s) => [...s.tags]));
+    const { plan, train, test, gold } = variantTexts(directory, variant);
     let baseline: string[][][] | null = null;
     // Untagged text: every token O, so that the noisy transform may turn any word into a handle etc.
     const brownText = brownFiles("news").flatMap(readBrownFile).map((s) => ({ words: s.words, tags: s.words.map(() => "O") }));

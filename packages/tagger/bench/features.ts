@@ -24,13 +24,11 @@
  *    perceptron instead of the word-type one.
  * Calibration is off: it does not change tags or F1.
  */
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { clusterReport, VARIANTS, wikigoldTestArticles } from "./clusters";
-import { wikigoldTrainDevArticles } from "./wikigold";
-import { parseColumnText, type ColumnDocument } from "../src/text/conll";
-import { planFolds } from "../src/evaluation/folds";
+import { clusterReport, VARIANTS, variantTexts } from "./clusters";
+import type { ColumnDocument } from "../src/text/conll";
 import { evaluateModel } from "../src/evaluation/evaluation";
 import { pairedBootstrap } from "../src/metrics/bootstrap";
 import { trainNeighbourWeights, trainWordTypeWeights } from "../src/estimation/perceptron";
@@ -143,10 +141,8 @@ function neighbourScores(train: readonly ColumnDocument[], heldOut: readonly Col
  * trained on train+dev (calibration off) with the count model's for comparison.
  */
 export function selectionReport(directory: string, variants = VARIANTS.map((v) => v.name)): Array<{ variant: string; scores: readonly { name: string; score: number }[]; refinements: SelectionResult["refinements"]; chosen: string; testF1: number; countTestF1: number; seconds: number }> {
-  const read = (file: string) => parseColumnText(readFileSync(join(directory, file), "utf8"), { file }).documents;
   return VARIANTS.filter((v) => variants.includes(v.name)).map((variant) => {
-    const train = variant.transform([...read("train.bio"), ...read("dev.bio")], 12);
-    const test = variant.transform(wikigoldTestArticles(directory), 13);
+    const { train, test } = variantTexts(directory, variant);
     const started = process.hrtime.bigint();
     const selection = selectConfiguration(train, {});
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;
@@ -157,15 +153,10 @@ export function selectionReport(directory: string, variants = VARIANTS.map((v) =
 
 /** The `neighbours` report of the file comment, per variant of bench/clusters.ts. */
 export function neighbourReport(directory: string, variants = VARIANTS.map((v) => v.name), log?: (line: string) => void, steps = NEIGHBOUR_STEPS, wordTypeOnly = false): NeighbourRow[] {
-  const read = (file: string) => parseColumnText(readFileSync(join(directory, file), "utf8"), { file }).documents;
   const names = ["count model (default)", ...steps.flatMap((rate) => Array.from({ length: NEIGHBOUR_PASSES }, (_, p) => `${wordTypeOnly ? "word-type" : "neighbours"}, ${p + 1} pass${p === 0 ? "" : "es"}, step ${rate}`))];
   const rows: NeighbourRow[] = [];
   for (const variant of VARIANTS.filter((v) => variants.includes(v.name))) {
-    const articles = variant.transform(wikigoldTrainDevArticles(directory), 11);
-    const plan = planFolds(articles, 5);
-    const train = variant.transform([...read("train.bio"), ...read("dev.bio")], 12);
-    const test = variant.transform(wikigoldTestArticles(directory), 13);
-    const gold = test.map((d) => d.sentences.map((s) => [...s.tags]));
+    const { plan, train, test, gold } = variantTexts(directory, variant);
     const folds = plan.folds.map((heldOut, f) => {
       const started = process.hrtime.bigint();
       const r = neighbourScores(plan.folds.filter((_, g) => g !== f).flat(), heldOut, false, steps, wordTypeOnly).f1;

@@ -8,19 +8,24 @@ function Grab() {
   return null;
 }
 
+/** The provider with fake timers; returns the toast region. */
+function renderToaster(): HTMLElement {
+  vi.useFakeTimers();
+  render(
+    <ToastProvider>
+      <Grab />
+    </ToastProvider>,
+  );
+  return screen.getByTestId("toast-region");
+}
+
 describe("ToastProvider", () => {
   afterEach(() => vi.useRealTimers());
 
   // The phone layout shows only the region's last toast (CSS; the browser test measures where it
   // lands), so the newest must be last, a repeat must move to the end, and all go by themselves.
   it("keeps the newest toast last, moves a repeated message to the end and lets each go after 6 s", () => {
-    vi.useFakeTimers();
-    render(
-      <ToastProvider>
-        <Grab />
-      </ToastProvider>,
-    );
-    const region = screen.getByTestId("toast-region");
+    const region = renderToaster();
     act(() => show("Cannot reach the server.", "error"));
     act(() => show("Saved.", "success"));
     act(() => show("Cannot reach the server.", "error"));
@@ -33,13 +38,7 @@ describe("ToastProvider", () => {
   // The phone layout cuts a toast to two lines (CSS line-clamp); a tap shows all of it and keeps
   // it, a second tap lets it go after the usual 6 s.
   it("opens a toast on a tap and keeps it until a second tap", () => {
-    vi.useFakeTimers();
-    render(
-      <ToastProvider>
-        <Grab />
-      </ToastProvider>,
-    );
-    const region = screen.getByTestId("toast-region");
+    const region = renderToaster();
     act(() => show("The file could not be read because its text layer is missing; export it again with text.", "error"));
     const toast = within(region).getByRole("button");
     expect(toast).toHaveAttribute("aria-expanded", "false");
